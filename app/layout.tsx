@@ -1,0 +1,20 @@
+import type { Metadata } from "next";
+import type { ReactNode } from "react";
+import { ToastProvider } from "@/components/ui/toast";
+import { mono, sans } from "./fonts";
+import "./globals.css";
+
+export const metadata: Metadata = {
+  title: { default: "Halflight", template: "%s · Halflight" },
+  description: "UV-Vis absorbance kinetics: ingest, fit, compare, review.",
+};
+
+export default function RootLayout({ children }: { children: ReactNode }) {
+  return (
+    <html lang="en" className={`${sans.variable} ${mono.variable}`}>
+      <body className="min-h-screen">
+        <ToastProvider>{children}</ToastProvider>
+      </body>
+    </html>
+  );
+}

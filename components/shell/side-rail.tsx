@@ -1,0 +1,70 @@
+"use client";
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+import { signOut } from "next-auth/react";
+import { cn } from "@/components/ui/cn";
+import { Mark } from "./mark";
+
+export function SideRail({
+  areas,
+  lab,
+  person,
+}: {
+  areas: Array<{ href: string; label: string }>;
+  lab: string;
+  person: { name: string; role: string; email: string };
+}) {
+  const path = usePathname();
+  return (
+    <aside className="flex w-rail shrink-0 flex-col border-r border-ink-100 bg-paper-sunk">
+      <a href="#main" className="sr-only focus:not-sr-only focus:m-2 focus:rounded-cell focus:bg-paper-raised focus:p-2">
+        Skip to content
+      </a>
+      <div className="flex items-center gap-3 px-5 py-5">
+        <Mark size={30} />
+        <div className="min-w-0">
+          <p className="font-semibold leading-tight">Halflight</p>
+          <p className="truncate text-xs text-ink-500" title={lab}>
+            {lab}
+          </p>
+        </div>
+      </div>
+      <nav aria-label="Workspace" className="flex-1 px-3">
+        <ul className="space-y-0.5" data-testid="workspace-nav">
+          {areas.map((a) => {
+            const active = path === a.href || path.startsWith(a.href + "/");
+            return (
+              <li key={a.href}>
+                <Link
+                  href={a.href}
+                  aria-current={active ? "page" : undefined}
+                  className={cn(
+                    "block rounded-cell px-3 py-2 text-base",
+                    active ? "bg-paper-raised font-semibold text-quartz-700 shadow-lift" : "text-ink-700 hover:bg-paper-raised",
+                  )}
+                >
+                  {a.label}
+                </Link>
+              </li>
+            );
+          })}
+        </ul>
+      </nav>
+      <div className="border-t border-ink-100 px-5 py-4 text-sm">
+        <p className="font-semibold" data-testid="signed-in-name">
+          {person.name}
+        </p>
+        <p className="text-ink-500" data-testid="signed-in-role">
+          {person.role}
+        </p>
+        <button
+          type="button"
+          onClick={() => signOut({ callbackUrl: "/sign-in" })}
+          className="mt-3 text-sm font-semibold text-quartz-700 underline-offset-2 hover:underline"
+        >
+          Sign out
+        </button>
+      </div>
+    </aside>
+  );
+}

@@ -1,0 +1,28 @@
+// `npm run demo` step one: migrate DATABASE_FILE and seed the demo scenario when the database is empty.
+import { DEFAULT_DATABASE_FILE } from "../config";
+import { openDb } from "../index";
+import { migrateToLatest } from "../migrate";
+import { DEMO_USERS, seedDemoWhenEmpty } from "../seeds/demo";
+import { authSecret } from "../../lib/auth/secret";
+
+async function main() {
+  const file = process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE;
+  const db = openDb(file);
+  try {
+    await migrateToLatest(db);
+    console.log(`Database ready: ${file}`);
+    if (process.argv.includes("--no-seed")) return;
+    if (await seedDemoWhenEmpty(db)) {
+      console.log("Demo lab seeded. Demo accounts (demo passwords, never for real data):");
+      for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(17)} ${u.email.padEnd(32)} ${u.password}`);
+    }
+    authSecret();
+  } finally {
+    await db.destroy();
+  }
+}
+
+main().catch((e) => {
+  console.error(e instanceof Error ? e.message : e);
+  process.exit(1);
+});

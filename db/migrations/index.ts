@@ -1,0 +1,8 @@
+// The migration list, imported statically so the bundled server and the CLI can migrate without a TypeScript loader.
+// Add each new file from `npm run db:make-migration` here, in order (a test checks the list matches the folder).
+import type { Knex } from "knex";
+import * as foundation from "./20261202030000_foundation";
+
+export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
+  { name: "20261202030000_foundation", ...foundation },
+];

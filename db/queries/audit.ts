@@ -1,0 +1,36 @@
+// The audit trail: rows are only ever inserted (the database refuses updates and deletes).
+import type { Db } from "@/db";
+import type { DbAuditEventRow } from "@/db/tables";
+
+export type NewAuditRow = Omit<DbAuditEventRow, "id">;
+
+export async function lastAuditHash(db: Db): Promise<string | null> {
+  const row = await db("audit_events").orderBy("id", "desc").first("hash");
+  return row?.hash ?? null;
+}
+
+export async function insertAuditRow(db: Db, row: NewAuditRow): Promise<DbAuditEventRow> {
+  const [saved] = await db("audit_events").insert(row).returning("*");
+  return saved as DbAuditEventRow;
+}
+
+export type AuditRowWithActor = DbAuditEventRow & { actor_name: string | null };
+
+export async function listAuditRows(
+  db: Db,
+  opts: { labId: number; limit: number; beforeId?: number },
+): Promise<AuditRowWithActor[]> {
+  const q = db("audit_events as a")
+    .leftJoin("users as u", "u.id", "a.actor_user_id")
+    .where("a.lab_id", opts.labId)
+    .orderBy("a.id", "desc")
+    .limit(opts.limit)
+    .select("a.*", "u.display_name as actor_name");
+  if (opts.beforeId) q.andWhere("a.id", "<", opts.beforeId);
+  return q;
+}
+
+/** Every row in order, for verifying the hash chain. */
+export async function allAuditRowsInOrder(db: Db): Promise<DbAuditEventRow[]> {
+  return db("audit_events").orderBy("id", "asc");
+}

@@ -1,0 +1,88 @@
+// Users and their lab memberships.
+import type { Db } from "@/db";
+import type { DbMembershipRow, DbUserRow } from "@/db/tables";
+import type { Role } from "@/lib/permissions/roles";
+
+export async function insertUser(
+  db: Db,
+  user: { email: string; displayName: string; passwordHash: string; createdAt: string },
+): Promise<DbUserRow> {
+  const [row] = await db("users")
+    .insert({
+      email: user.email.toLowerCase(),
+      display_name: user.displayName,
+      password_hash: user.passwordHash,
+      failed_sign_ins: 0,
+      locked_until: null,
+      disabled: false,
+      created_at: user.createdAt,
+    })
+    .returning("*");
+  return row as DbUserRow;
+}
+
+export async function findUserByEmail(db: Db, email: string): Promise<DbUserRow | undefined> {
+  return db("users").where({ email: email.trim().toLowerCase() }).first();
+}
+
+export async function findUserById(db: Db, id: number): Promise<DbUserRow | undefined> {
+  return db("users").where({ id }).first();
+}
+
+/** Counts one more failed sign-in and, when given, sets the lock; returns the new count. */
+export async function recordFailedSignIn(db: Db, userId: number, lockedUntil: string | null): Promise<number> {
+  await db("users")
+    .where({ id: userId })
+    .update({ failed_sign_ins: db.raw("failed_sign_ins + 1"), ...(lockedUntil ? { locked_until: lockedUntil } : {}) });
+  const row = await db("users").where({ id: userId }).first("failed_sign_ins");
+  return Number(row?.failed_sign_ins ?? 0);
+}
+
+export async function clearFailedSignIns(db: Db, userId: number): Promise<void> {
+  await db("users").where({ id: userId }).update({ failed_sign_ins: 0, locked_until: null });
+}
+
+export async function insertMembership(
+  db: Db,
+  m: { userId: number; labId: number; role: Role; createdAt: string },
+): Promise<DbMembershipRow> {
+  const [row] = await db("memberships")
+    .insert({ user_id: m.userId, lab_id: m.labId, role: m.role, created_at: m.createdAt })
+    .returning("*");
+  return row as DbMembershipRow;
+}
+
+export interface MembershipWithLab {
+  user_id: number;
+  lab_id: number;
+  role: Role;
+  lab_slug: string;
+  lab_name: string;
+}
+
+/** The user's memberships, oldest first (the first is the lab they sign in to). */
+export async function listMembershipsOfUser(db: Db, userId: number): Promise<MembershipWithLab[]> {
+  return db("memberships as m")
+    .join("labs as l", "l.id", "m.lab_id")
+    .where("m.user_id", userId)
+    .orderBy("m.id")
+    .select("m.user_id", "m.lab_id", "m.role", "l.slug as lab_slug", "l.name as lab_name");
+}
+
+export interface LabMemberRow {
+  user_id: number;
+  email: string;
+  display_name: string;
+  role: Role;
+  disabled: boolean | number;
+  locked_until: string | null;
+  failed_sign_ins: number;
+}
+
+export async function listLabMembers(db: Db, labId: number): Promise<LabMemberRow[]> {
+  return db("memberships as m")
+    .join("users as u", "u.id", "m.user_id")
+    .where("m.lab_id", labId)
+    .orderBy("u.display_name")
+    .select("u.id as user_id", "u.email", "u.display_name", "m.role", "u.disabled", "u.locked_until", "u.failed_sign_ins");
+}

@@ -1,0 +1,57 @@
+// next-auth configuration: e-mail + password, JWT sessions carrying user, lab and role.
+import type { NextAuthOptions } from "next-auth";
+import CredentialsProvider from "next-auth/providers/credentials";
+import { getDb } from "@/db";
+import { AppError } from "@/lib/errors";
+import { isRole } from "@/lib/permissions/roles";
+import { authSecret } from "./secret";
+import { signInWithPassword } from "./sign-in";
+
+export const SESSION_HOURS = 10;
+
+export const authOptions: NextAuthOptions = {
+  secret: authSecret(),
+  session: { strategy: "jwt", maxAge: SESSION_HOURS * 3600 },
+  pages: { signIn: "/sign-in", error: "/sign-in" },
+  providers: [
+    CredentialsProvider({
+      name: "Halflight account",
+      credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
+      async authorize(credentials) {
+        const email = credentials?.email?.trim() ?? "";
+        const password = credentials?.password ?? "";
+        if (!email || !password) throw new Error("Enter your e-mail and your password.");
+        try {
+          const u = await signInWithPassword(await getDb(), email, password);
+          return { id: String(u.userId), email: u.email, name: u.name, labId: u.labId, role: u.role };
+        } catch (e) {
+          // next-auth passes the thrown message to the sign-in form.
+          if (e instanceof AppError) throw new Error(e.message);
+          throw e;
+        }
+      },
+    }),
+  ],
+  callbacks: {
+    async jwt({ token, user }) {
+      if (user) {
+        const u = user as { id: string; labId?: number; role?: string };
+        token.uid = Number(u.id);
+        token.labId = u.labId;
+        token.role = isRole(u.role) ? u.role : undefined;
+      }
+      return token;
+    },
+    async session({ session, token }) {
+      return { ...session, uid: token.uid, labId: token.labId, role: token.role };
+    },
+  },
+};
+
+declare module "next-auth/jwt" {
+  interface JWT {
+    uid?: number;
+    labId?: number;
+    role?: import("@/lib/permissions/roles").Role;
+  }
+}

@@ -1,0 +1,39 @@
+// One error class for the whole app; `toErrorResponse` (lib/http/errors.ts) maps it to HTTP.
+export const ERROR_CODES = {
+  bad_request: 400,
+  unauthorized: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  payload_too_large: 413,
+  unprocessable: 422,
+  locked: 423,
+  too_many_requests: 429,
+  internal: 500,
+} as const;
+
+export type ErrorCode = keyof typeof ERROR_CODES;
+
+export interface ErrorIssue {
+  path: string;
+  message: string;
+  line?: number;
+}
+
+export class AppError extends Error {
+  readonly code: ErrorCode;
+  readonly issues?: ErrorIssue[];
+  readonly line?: number;
+
+  constructor(opts: { code: ErrorCode; message: string; issues?: ErrorIssue[]; line?: number; cause?: unknown }) {
+    super(opts.message, { cause: opts.cause });
+    this.name = "AppError";
+    this.code = opts.code;
+    this.issues = opts.issues;
+    this.line = opts.line;
+  }
+
+  get status(): number {
+    return ERROR_CODES[this.code];
+  }
+}

@@ -1,0 +1,113 @@
+// The foundation as a person meets it: sign-in, each role's navigation, lockout, redirects and 403s.
+import path from "node:path";
+import { afterEach, beforeEach, describe, expect, inject, it } from "vitest";
+import type { BrowserContext, Page } from "playwright-core";
+import { DEMO_USERS } from "@/db/seeds/demo";
+import { AREAS } from "@/lib/navigation";
+import { can } from "@/lib/permissions";
+import { openBrowser, signIn } from "./chromium";
+
+const baseURL = inject("baseURL");
+const artifacts = inject("artifacts");
+let context: BrowserContext;
+let close: () => Promise<void>;
+let page: Page;
+
+beforeEach(async () => {
+  ({ context, close } = await openBrowser());
+  page = await context.newPage();
+});
+afterEach(async () => {
+  await close();
+});
+
+describe("each demo role", () => {
+  for (const u of DEMO_USERS) {
+    it(`${u.role} signs in and sees exactly its navigation`, async () => {
+      await signIn(page, baseURL, u.email, u.password);
+      const nav = page.getByTestId("workspace-nav");
+      await nav.waitFor();
+      const labels = (await nav.getByRole("link").allTextContents()).map((s) => s.trim());
+      const expected = AREAS.filter((a) => can({ userId: 0, role: u.role }, a.permission)).map((a) => a.label);
+      expect(labels).toEqual(expected);
+      expect(labels.length).toBeGreaterThan(0);
+      await expect(page.getByTestId("signed-in-name").textContent()).resolves.toBe(u.name);
+      await page.screenshot({ path: path.join(artifacts, `home-${u.role}.png`), fullPage: true });
+
+      // Areas outside the role answer 403 with a page that says so.
+      const hidden = AREAS.find((a) => !can({ userId: 0, role: u.role }, a.permission));
+      if (hidden) {
+        const res = await page.goto(`${baseURL}${hidden.href}`);
+        expect(res?.status()).toBe(403);
+        await expect(page.getByRole("heading", { name: "Not open to your role" }).isVisible()).resolves.toBe(true);
+      }
+    });
+  }
+});
+
+describe("sign-in refusals", () => {
+  it("a wrong password shows a clear message", async () => {
+    const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
+    await signIn(page, baseURL, analyst.email, "not-the-password");
+    const alert = page.getByTestId("sign-in-error");
+    await alert.waitFor();
+    expect(await alert.textContent()).toBe("The e-mail or password is not right. Check both and try again.");
+    expect(new URL(page.url()).pathname).toBe("/sign-in");
+    await page.screenshot({ path: path.join(artifacts, "sign-in-wrong-password.png") });
+  });
+
+  it("after five failures even the right password is refused", async () => {
+    const probe = inject("lockoutUser");
+    for (let i = 1; i <= 5; i++) {
+      await signIn(page, baseURL, probe.email, `wrong-${i}`);
+      await page.getByTestId("sign-in-error").waitFor();
+      // wait for this attempt's answer before the next one
+      await page.getByRole("button", { name: "Sign in" }).waitFor();
+    }
+    expect(await page.getByTestId("sign-in-error").textContent()).toMatch(/locked for 15 minutes/);
+    await signIn(page, baseURL, probe.email, probe.password);
+    const alert = page.getByTestId("sign-in-error");
+    await alert.waitFor();
+    expect(await alert.textContent()).toMatch(/This account is locked after 5 failed sign-ins in a row/);
+    expect(new URL(page.url()).pathname).toBe("/sign-in");
+    await page.screenshot({ path: path.join(artifacts, "sign-in-locked.png") });
+  });
+});
+
+describe("signed out", () => {
+  it("a page visit redirects to sign-in and keeps where it was going", async () => {
+    await page.goto(`${baseURL}/fits`);
+    expect(new URL(page.url()).pathname).toBe("/sign-in");
+    expect(new URL(page.url()).searchParams.get("next")).toBe("/fits");
+    await page.screenshot({ path: path.join(artifacts, "sign-in.png") });
+  });
+
+  it("the API answers 401 in the error envelope", async () => {
+    const res = await page.request.get(`${baseURL}/api/me`);
+    expect(res.status()).toBe(401);
+    expect((await res.json()).error.code).toBe("unauthorized");
+  });
+});
+
+describe("an analyst", () => {
+  it("gets 403 from an admin API, and its own identity from /api/me", async () => {
+    const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
+    await signIn(page, baseURL, analyst.email, analyst.password);
+    await page.getByTestId("workspace-nav").waitFor();
+    const denied = await page.request.get(`${baseURL}/api/admin/members`);
+    expect(denied.status()).toBe(403);
+    expect((await denied.json()).error).toMatchObject({ code: "forbidden" });
+    const me = await page.request.get(`${baseURL}/api/me`);
+    expect(me.status()).toBe(200);
+    expect(await me.json()).toMatchObject({ role: "analyst", user: { email: analyst.email }, lab: { slug: "larkspur" } });
+  });
+
+  it("signs out and is sent back to sign-in", async () => {
+    const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
+    await signIn(page, baseURL, analyst.email, analyst.password);
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL((u) => u.pathname === "/sign-in");
+    await page.goto(`${baseURL}/runs`);
+    expect(new URL(page.url()).pathname).toBe("/sign-in");
+  });
+});

@@ -1,0 +1,101 @@
+// Builds the app, prepares a throw-away database with the demo lab, serves the production build on a free port,
+// and hands the address to the browser tests.
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import fs from "node:fs";
+import net from "node:net";
+import os from "node:os";
+import path from "node:path";
+import type { TestProject } from "vitest/node";
+import { openDb } from "@/db";
+import { migrateToLatest } from "@/db/migrate";
+import { findLabBySlug } from "@/db/queries/labs";
+import { insertMembership, insertUser } from "@/db/queries/users";
+import { DEMO_LAB, seedDemoWhenEmpty } from "@/db/seeds/demo";
+import { hashPassword } from "@/lib/auth/password";
+
+export const LOCKOUT_USER = { email: "lockout.probe@larkspur.example", password: "probe-pass-1234" };
+
+declare module "vitest" {
+  export interface ProvidedContext {
+    baseURL: string;
+    lockoutUser: { email: string; password: string };
+    artifacts: string;
+  }
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.listen(0, "127.0.0.1", () => {
+      const a = s.address();
+      s.close(() => (a && typeof a === "object" ? resolve(a.port) : reject(new Error("no port"))));
+    });
+  });
+}
+
+async function waitForServer(url: string, child: ChildProcess, ms: number): Promise<void> {
+  const until = Date.now() + ms;
+  while (Date.now() < until) {
+    if (child.exitCode !== null) throw new Error(`the server exited with ${child.exitCode} before answering`);
+    try {
+      const r = await fetch(url, { redirect: "manual" });
+      if (r.status < 500) return;
+    } catch {
+      // not up yet
+    }
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  throw new Error(`the server did not answer ${url} within ${ms} ms`);
+}
+
+let server: ChildProcess | undefined;
+
+export async function setup(project: TestProject): Promise<void> {
+  if (process.env.HALFLIGHT_SKIP_BUILD !== "1") {
+    const b = spawnSync(process.execPath, [path.resolve("node_modules/next/dist/bin/next"), "build"], {
+      stdio: "inherit",
+      env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1" },
+    });
+    if (b.status !== 0) throw new Error("next build failed");
+  }
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-e2e-"));
+  const dbFile = path.join(dir, "e2e.sqlite");
+  const db = openDb(dbFile);
+  await migrateToLatest(db);
+  await seedDemoWhenEmpty(db);
+  const lab = await findLabBySlug(db, DEMO_LAB.slug);
+  const now = new Date().toISOString();
+  const u = await insertUser(db, {
+    email: LOCKOUT_USER.email,
+    displayName: "Lockout Probe",
+    passwordHash: await hashPassword(LOCKOUT_USER.password),
+    createdAt: now,
+  });
+  await insertMembership(db, { userId: u.id, labId: lab!.id, role: "analyst", createdAt: now });
+  await db.destroy();
+
+  const port = await freePort();
+  const baseURL = `http://127.0.0.1:${port}`;
+  server = spawn(process.execPath, [path.resolve("node_modules/next/dist/bin/next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
+    stdio: ["ignore", "inherit", "inherit"],
+    env: {
+      ...process.env,
+      DATABASE_FILE: dbFile,
+      NEXTAUTH_URL: baseURL,
+      NEXTAUTH_SECRET: randomBytes(24).toString("base64url"),
+      NEXT_TELEMETRY_DISABLED: "1",
+    },
+  });
+  await waitForServer(`${baseURL}/sign-in`, server, 60_000);
+
+  const artifacts = path.resolve("tests/.artifacts");
+  fs.mkdirSync(artifacts, { recursive: true });
+  project.provide("baseURL", baseURL);
+  project.provide("lockoutUser", LOCKOUT_USER);
+  project.provide("artifacts", artifacts);
+}
+
+export async function teardown(): Promise<void> {
+  server?.kill("SIGTERM");
+}
