@@ -1,21 +1,216 @@
-// `npm run --silent cli -- <verb> FILE [options]`: the command-line contract (../shared/contracts/CLI.md).
+// `npm run --silent cli -- <verb> FILE [options]`: the command-line contract (../shared/contracts/CLI.md), through the
+// same parsers and engine as the web app.
+import fs from "node:fs";
+import path from "node:path";
+import { parseArgs } from "node:util";
+import { arrhenius, celsiusToKelvin, ENGINE_VERSION, fitKinetics, FitSpecError, MODEL_NAMES, TemperatureDataError, type FitResult, type RatePoint } from "@/lib/kinetics";
+import { parseExport, ParseError, type ParsedExport } from "@/parsers";
+import { locateTable } from "@/parsers/delimited/parse";
+import { readNumber } from "@/parsers/text";
+
 const USAGE = `Usage: npm run --silent cli -- <verb> FILE [options]
 
-Verbs (see the command-line contract):
-  parse FILE --json        read an export through the parsers        (not built yet)
-  ingest FILE [--json]     store an export in DATABASE_FILE          (not built yet)
-  fit FILE --model NAME    fit a kinetic model                       (not built yet)
-  arrhenius FILE --json    activation energy and Eyring parameters   (not built yet)
+  parse FILE --json                         read an export through the parsers
+  ingest FILE [--lab SLUG] [--json]         store an export in DATABASE_FILE
+  fit FILE [--series NAME] (--model NAME | --formula EXPR) [--fix P=V]... [--start P=V]...
+           [--interval SECONDS] --json      fit a kinetic model (time in seconds)
+  arrhenius FILE --json                     activation energy and Eyring parameters
+
+Models: ${MODEL_NAMES.join(", ")}
 `;
 
-function main(argv: string[]): number {
-  const verb = argv[0];
-  if (!verb || verb === "--help" || verb === "help") {
-    process.stdout.write(USAGE);
-    return verb ? 0 : 2;
+export class CliError extends Error {
+  constructor(
+    message: string,
+    readonly exitCode = 1,
+  ) {
+    super(message);
   }
-  process.stderr.write(`halflight: the verb "${verb}" is not available yet.\n\n${USAGE}`);
-  return 2;
 }
 
-process.exitCode = main(process.argv.slice(2));
+function readFileBytes(file: string | undefined): Uint8Array {
+  if (!file) throw new CliError("no FILE given.\n\n" + USAGE, 2);
+  try {
+    return new Uint8Array(fs.readFileSync(file));
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new CliError(`${file}: ${code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a file" : "cannot be read"}.`);
+  }
+}
+
+function parseFile(file: string): ParsedExport {
+  const res = parseExport(readFileBytes(file), path.basename(file));
+  if (res instanceof ParseError) throw new CliError(`${file}: ${res.message}`);
+  return res;
+}
+
+function pairs(list: string[] | undefined, flag: string): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const item of list ?? []) {
+    const m = item.match(/^\s*([A-Za-z_]\w*)\s*=\s*(.+?)\s*$/);
+    const v = m ? Number(m[2]) : NaN;
+    if (!m || !Number.isFinite(v)) throw new CliError(`${flag} ${item}: write it as NAME=NUMBER (for example ${flag} ainf=0.04).`, 2);
+    out[m[1]!] = v;
+  }
+  return out;
+}
+
+export function seriesForCli(p: ParsedExport) {
+  return {
+    parser: p.parser,
+    metadata: p.metadata,
+    series: p.series.map((s) => ({
+      name: s.name,
+      quantity: s.quantity === "transmittance-converted absorbance" ? "absorbance" : s.quantity,
+      ...(s.quantity === "transmittance-converted absorbance" ? { converted_from: "%T" } : {}),
+      unit: s.unit,
+      t: s.t,
+      y: s.y,
+      skipped_lines: s.skipped_lines,
+      ...(s.metadata ? { metadata: s.metadata } : {}),
+    })),
+    warnings: p.warnings,
+  };
+}
+
+export function fitForCli(r: FitResult, series: string) {
+  const { residuals: _r, fitted: _f, ...rest } = r;
+  return { ...rest, series, engine: ENGINE_VERSION };
+}
+
+function cmdFit(argv: string[]): unknown {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: {
+      series: { type: "string" },
+      model: { type: "string" },
+      formula: { type: "string" },
+      fix: { type: "string", multiple: true },
+      start: { type: "string", multiple: true },
+      interval: { type: "string" },
+      json: { type: "boolean" },
+      "log-weights": { type: "boolean" },
+    },
+  });
+  const file = positionals[0];
+  if (values.model && values.formula) throw new CliError("give --model or --formula, not both.", 2);
+  const parsed = parseFile(file ?? (readFileBytes(undefined) as never));
+  const s = values.series ? parsed.series.find((x) => x.name === values.series) : parsed.series[0];
+  if (!s) throw new CliError(`${file}: there is no series "${values.series}" (series: ${parsed.series.map((x) => `"${x.name}"`).join(", ")}).`);
+  const interval = values.interval === undefined ? undefined : Number(values.interval);
+  if (interval !== undefined && !(interval > 0)) throw new CliError(`--interval ${values.interval}: give a positive number of seconds.`, 2);
+  try {
+    const r = fitKinetics(s.t, s.y, {
+      model: values.formula ? undefined : (values.model ?? "first-order"),
+      formula: values.formula,
+      fixed: pairs(values.fix, "--fix"),
+      start: values.start ? pairs(values.start, "--start") : undefined,
+      interval,
+      logWeights: values["log-weights"],
+    });
+    return fitForCli(r, s.name);
+  } catch (e) {
+    if (e instanceof FitSpecError) throw new CliError(e.message, 2);
+    throw e;
+  }
+}
+
+/** Reads a table of temperatures (°C or K in the header), rate constants and optional standard errors. */
+export function readRateTable(bytes: Uint8Array, file: string): RatePoint[] {
+  let table;
+  try {
+    table = locateTable(bytes);
+  } catch (e) {
+    if (e instanceof ParseError) throw new CliError(`${file}: ${e.message}`);
+    throw e;
+  }
+  const h = table.headerCells;
+  const headerLine = table.headerIdx + 1;
+  const tCol = h.findIndex((x) => /°\s*C|\(\s*C\s*\)|\bdeg\s*C|celsius|\(\s*K\s*\)|\bkelvin|\[\s*K\s*\]|\/\s*K\b|°\s*K/i.test(x));
+  if (tCol < 0) throw new CliError(`${file}: line ${headerLine || 1}: no temperature column: put °C or K in its header, e.g. "T (°C)".`);
+  const kelvin = !/°\s*C|\(\s*C\s*\)|deg\s*C|celsius/i.test(h[tCol]!);
+  const seCol = h.findIndex((x, i) => i !== tCol && /^(se|s\.e\.|sd|std|stderr|standard error|error|u\(|σ|sigma)/i.test(x.trim()));
+  let kCol = h.findIndex((x, i) => i !== tCol && i !== seCol && /^(k|kobs|k_obs|rate)/i.test(x.trim()));
+  if (kCol < 0) kCol = h.findIndex((_, i) => i !== tCol && i !== seCol);
+  if (kCol < 0) throw new CliError(`${file}: line ${headerLine || 1}: no rate-constant column beside the temperature.`);
+  const points: RatePoint[] = [];
+  table.rows.forEach((cells, r) => {
+    const line = table.first + 1 + r;
+    if (cells.length === 1 && !cells[0]!.trim()) return;
+    const num = (c: number, what: string, optional = false): number | null => {
+      const raw = (cells[c] ?? "").trim();
+      if (optional && raw === "") return null;
+      const v = readNumber(raw, table.decimalComma);
+      if (typeof v !== "number" || Number.isNaN(v)) throw new CliError(`${file}: line ${line}: the ${what} "${raw}" is not a number.`);
+      return v;
+    };
+    const T = num(tCol, "temperature")!;
+    points.push({
+      temperatureK: kelvin ? T : celsiusToKelvin(T),
+      k: num(kCol, "rate constant")!,
+      se: seCol >= 0 ? num(seCol, "standard error", true) : null,
+    });
+  });
+  return points;
+}
+
+function cmdArrhenius(argv: string[]): unknown {
+  const { positionals } = parseArgs({ args: argv, allowPositionals: true, options: { json: { type: "boolean" } } });
+  const file = positionals[0];
+  const points = readRateTable(readFileBytes(file), file!);
+  try {
+    const a = arrhenius(points);
+    return {
+      n: a.n,
+      method: a.method,
+      weighted: a.weighted,
+      ea: a.ea,
+      lnA: a.lnA,
+      corr_ea_lnA: a.corrEaLnA,
+      r2: a.r2,
+      dof: a.dof,
+      eyring: a.eyring,
+      temperature_range_k: a.temperatureRangeK,
+      warnings: a.warnings,
+      engine: ENGINE_VERSION,
+    };
+  } catch (e) {
+    if (e instanceof TemperatureDataError) throw new CliError(`${file}: ${e.message}`);
+    throw e;
+  }
+}
+
+async function cmdIngest(argv: string[]): Promise<unknown> {
+  const { ingestCommand } = await import("./ingest");
+  return ingestCommand(argv);
+}
+
+export async function runCli(argv: string[]): Promise<{ code: number; out?: string; err?: string }> {
+  const [verb, ...rest] = argv;
+  try {
+    if (!verb || verb === "help" || verb === "--help") return { code: verb ? 0 : 2, out: USAGE };
+    let result: unknown;
+    if (verb === "parse") {
+      const { positionals } = parseArgs({ args: rest, allowPositionals: true, options: { json: { type: "boolean" }, parser: { type: "string" } } });
+      result = seriesForCli(parseFile(positionals[0] ?? (readFileBytes(undefined) as never)));
+    } else if (verb === "fit") result = cmdFit(rest);
+    else if (verb === "arrhenius") result = cmdArrhenius(rest);
+    else if (verb === "ingest") result = await cmdIngest(rest);
+    else throw new CliError(`there is no verb "${verb}".\n\n${USAGE}`, 2);
+    return { code: 0, out: JSON.stringify(result, null, 2) + "\n" };
+  } catch (e) {
+    if (e instanceof CliError) return { code: e.exitCode, err: `halflight: ${e.message}\n` };
+    if (e instanceof TypeError && /parseArgs|Unknown option|ERR_PARSE_ARGS/.test(String((e as { code?: string }).code ?? e.message)))
+      return { code: 2, err: `halflight: ${e.message}\n\n${USAGE}` };
+    throw e;
+  }
+}
+
+if (process.argv[1] && /lib[\\/]cli[\\/]main\.ts$/.test(process.argv[1])) {
+  runCli(process.argv.slice(2)).then(({ code, out, err }) => {
+    if (out) process.stdout.write(out);
+    if (err) process.stderr.write(err);
+    process.exitCode = code;
+  });
+}

@@ -1,0 +1,77 @@
+// Residual diagnostics and model comparison: runs test (Wald–Wolfowitz), Durbin–Watson, AICc, Akaike weights,
+// extra-sum-of-squares F test.
+import { fCdf, normalCdf } from "./stats";
+
+export interface RunsTest {
+  runs: number;
+  positives: number;
+  negatives: number;
+  expected: number;
+  z: number | null;
+  p: number | null;
+}
+
+/** Runs of residual signs; zeros are skipped. Expected runs 2·n1·n2/n + 1 (Wald–Wolfowitz). */
+export function runsTest(residuals: ArrayLike<number>): RunsTest {
+  let runs = 0,
+    pos = 0,
+    neg = 0,
+    prev = 0;
+  for (let i = 0; i < residuals.length; i++) {
+    const s = Math.sign(residuals[i]!);
+    if (s === 0) continue;
+    if (s > 0) pos++;
+    else neg++;
+    if (s !== prev) runs++;
+    prev = s;
+  }
+  const n = pos + neg;
+  const expected = n > 0 ? (2 * pos * neg) / n + 1 : 0;
+  const variance = n > 1 ? (2 * pos * neg * (2 * pos * neg - n)) / (n * n * (n - 1)) : 0;
+  const z = variance > 0 ? (runs - expected) / Math.sqrt(variance) : null;
+  return { runs, positives: pos, negatives: neg, expected, z, p: z === null ? null : 2 * (1 - normalCdf(Math.abs(z))) };
+}
+
+/** d = Σ(e_t − e_{t−1})² / Σ e_t²; about 2 when successive residuals are independent. */
+export function durbinWatson(residuals: ArrayLike<number>): number | null {
+  let num = 0,
+    den = 0;
+  for (let i = 0; i < residuals.length; i++) {
+    const e = residuals[i]!;
+    den += e * e;
+    if (i > 0) num += (e - residuals[i - 1]!) ** 2;
+  }
+  return den > 0 ? num / den : null;
+}
+
+/** AICc = n ln(SSR/n) + 2K + 2K(K+1)/(n − K − 1); null where n − K − 1 ≤ 0 or SSR is 0. */
+export function aicc(ssr: number, n: number, k: number): number | null {
+  if (!(ssr > 0) || n - k - 1 <= 0) return null;
+  return n * Math.log(ssr / n) + 2 * k + (2 * k * (k + 1)) / (n - k - 1);
+}
+
+/** Akaike weights from AICc values (null entries get weight null). */
+export function akaikeWeights(values: ReadonlyArray<number | null>): Array<number | null> {
+  const finite = values.filter((v): v is number => v !== null && Number.isFinite(v));
+  if (finite.length === 0) return values.map(() => null);
+  const best = Math.min(...finite);
+  const rel = values.map((v) => (v === null || !Number.isFinite(v) ? null : Math.exp(-(v - best) / 2)));
+  const sum = rel.reduce<number>((s, v) => s + (v ?? 0), 0);
+  return rel.map((v) => (v === null ? null : v / sum));
+}
+
+export interface FTest {
+  f: number;
+  df1: number;
+  df2: number;
+  p: number;
+}
+
+/** Extra-sum-of-squares F test of a simpler model nested in a more complex one. */
+export function extraSumOfSquaresF(simple: { ssr: number; dof: number }, complex: { ssr: number; dof: number }): FTest | null {
+  const df1 = simple.dof - complex.dof;
+  const df2 = complex.dof;
+  if (df1 <= 0 || df2 <= 0 || !(complex.ssr > 0)) return null;
+  const f = (simple.ssr - complex.ssr) / df1 / (complex.ssr / df2);
+  return { f, df1, df2, p: 1 - fCdf(Math.max(f, 0), df1, df2) };
+}

@@ -1,0 +1,256 @@
+// Levenberg–Marquardt for nonlinear least squares: damping scaled by diag(JᵀJ) (Moré), steps from a QR of J (never the
+// normal equations), acceptance by the gain ratio with Nielsen's damping update, relative convergence tests, box bounds
+// by projection, fixed parameters.
+import { householderQR, inverseRtR, solveUpper } from "./linalg";
+
+export interface LsqProblem {
+  /** Number of residuals. */
+  n: number;
+  /** Number of parameters (free and fixed). */
+  p: number;
+  /** Weighted residuals sqrt(w)·(f(x) − y) into `out`. */
+  residuals(x: Float64Array, out: Float64Array): void;
+  /** Weighted Jacobian of the residuals, n×p column-major, into `J`. */
+  jacobian(x: Float64Array, J: Float64Array): void;
+}
+
+export interface LmOptions {
+  free?: readonly boolean[];
+  lower?: readonly number[];
+  upper?: readonly number[];
+  maxIterations?: number;
+  /** Relative reduction of the sum of squares below which the fit has converged. */
+  ftol?: number;
+  /** Relative (scaled) step size below which the fit has converged. */
+  xtol?: number;
+  /** Largest cosine between the residual vector and a Jacobian column at convergence. */
+  gtol?: number;
+}
+
+export type LmStop = "ftol" | "xtol" | "gtol" | "zero-residual" | "max-iterations" | "no-progress" | "not-finite";
+
+export interface LmResult {
+  x: Float64Array;
+  ssr: number;
+  iterations: number;
+  evaluations: number;
+  converged: boolean;
+  stop: LmStop;
+  /** Unscaled covariance factor (JᵀJ)⁻¹ over the free parameters at the solution, or null when J is rank-deficient. */
+  inverseHessian: Float64Array | null;
+  freeIndex: number[];
+  /** Free parameters sitting on a bound at the solution. */
+  atBound: number[];
+}
+
+const DEFAULTS = { maxIterations: 1000, ftol: 1e-17, xtol: 1e-12, gtol: 1e-14 };
+
+function sumsq(v: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < v.length; i++) s += v[i]! * v[i]!;
+  return s;
+}
+
+export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>, options: LmOptions = {}): LmResult {
+  const { n, p } = problem;
+  const opts = {
+    ...options,
+    maxIterations: options.maxIterations ?? DEFAULTS.maxIterations,
+    ftol: options.ftol ?? DEFAULTS.ftol,
+    xtol: options.xtol ?? DEFAULTS.xtol,
+    gtol: options.gtol ?? DEFAULTS.gtol,
+  };
+  const freeIndex: number[] = [];
+  for (let j = 0; j < p; j++) if (opts.free?.[j] ?? true) freeIndex.push(j);
+  const pf = freeIndex.length;
+  const lower = Float64Array.from({ length: p }, (_, j) => opts.lower?.[j] ?? -Infinity);
+  const upper = Float64Array.from({ length: p }, (_, j) => opts.upper?.[j] ?? Infinity);
+
+  const x = Float64Array.from(start);
+  for (let j = 0; j < p; j++) x[j] = Math.min(upper[j]!, Math.max(lower[j]!, x[j]!));
+  const r = new Float64Array(n);
+  const rTrial = new Float64Array(n);
+  const Jfull = new Float64Array(n * p);
+  const Jf = new Float64Array(n * pf);
+  const xTrial = new Float64Array(p);
+  let evaluations = 1;
+
+  problem.residuals(x, r);
+  let F = sumsq(r);
+  const base = { freeIndex, atBound: [] as number[] };
+  if (!Number.isFinite(F)) {
+    return { x, ssr: F, iterations: 0, evaluations, converged: false, stop: "not-finite", inverseHessian: null, ...base };
+  }
+
+  // Factor J = QR at the current point; keep R, Qᵀr and the column norms.
+  let R: Float64Array = new Float64Array(pf * pf);
+  let qtr: Float64Array = new Float64Array(pf);
+  const colNorm = new Float64Array(pf);
+  const D = new Float64Array(pf); // scaling: running max of column norms (Moré)
+  const factor = (): boolean => {
+    problem.jacobian(x, Jfull);
+    for (let k = 0; k < pf; k++) {
+      const src = freeIndex[k]! * n;
+      let s = 0;
+      for (let i = 0; i < n; i++) {
+        const v = Jfull[src + i]!;
+        Jf[k * n + i] = v;
+        s += v * v;
+      }
+      colNorm[k] = Math.sqrt(s);
+      D[k] = Math.max(D[k]!, colNorm[k]!);
+      if (D[k] === 0) D[k] = 1;
+    }
+    const rr = Float64Array.from(r);
+    R = householderQR(Jf, n, pf, [rr]);
+    qtr = Float64Array.from(rr.subarray(0, pf));
+    for (let i = 0; i < R.length; i++) if (!Number.isFinite(R[i]!)) return false;
+    return true;
+  };
+
+  const gradientCosine = (): number => {
+    // g = Jᵀr = Rᵀ qtr; cosine_j = |g_j| / (||J_j|| ||r||)
+    const rn = Math.sqrt(F);
+    if (rn === 0) return 0;
+    let worst = 0;
+    for (let j = 0; j < pf; j++) {
+      if (colNorm[j] === 0) continue;
+      let g = 0;
+      for (let k = 0; k <= j; k++) g += R[k * pf + j]! * qtr[k]!;
+      worst = Math.max(worst, Math.abs(g) / (colNorm[j]! * rn));
+    }
+    return worst;
+  };
+
+  // Near the optimum a few undamped Gauss–Newton steps recover the last digits that damping leaves behind.
+  const polish = () => {
+    for (let k = 0; k < 4; k++) {
+      if (!factor()) return;
+      const h = solveUpper(R, pf, qtr.map((v) => -v));
+      if (!h) return;
+      xTrial.set(x);
+      for (let q = 0; q < pf; q++) {
+        const j = freeIndex[q]!;
+        xTrial[j] = Math.min(upper[j]!, Math.max(lower[j]!, x[j]! + h[q]!));
+      }
+      problem.residuals(xTrial, rTrial);
+      evaluations++;
+      const Fn = sumsq(rTrial);
+      if (!(Fn <= F)) return;
+      const same = xTrial.every((v, j) => v === x[j]);
+      x.set(xTrial);
+      r.set(rTrial);
+      F = Fn;
+      if (same) return;
+    }
+  };
+
+  const finish = (converged: boolean, stop: LmStop, iterations: number): LmResult => {
+    if (converged && pf > 0 && F > 0) polish();
+    const atBound = freeIndex.filter((j) => x[j] === lower[j] || x[j] === upper[j]);
+    let inverseHessian: Float64Array | null = null;
+    if (pf > 0 && factor()) {
+      // Scale columns to unit norm so the rank test and the inverse do not depend on parameter units.
+      // (Jf holds the QR of factor(); the Jacobian itself is still in Jfull.)
+      const Js = new Float64Array(n * pf);
+      for (let k = 0; k < pf; k++) {
+        const c = colNorm[k]! || 1;
+        const src = freeIndex[k]! * n;
+        for (let i = 0; i < n; i++) Js[k * n + i] = Jfull[src + i]! / c;
+      }
+      const Rs = householderQR(Js, n, pf);
+      const Cs = inverseRtR(Rs, pf);
+      if (Cs) {
+        inverseHessian = new Float64Array(pf * pf);
+        for (let a = 0; a < pf; a++)
+          for (let b = 0; b < pf; b++) inverseHessian[a * pf + b] = Cs[a * pf + b]! / ((colNorm[a]! || 1) * (colNorm[b]! || 1));
+      }
+    }
+    return { x, ssr: F, iterations, evaluations, converged, stop, inverseHessian, freeIndex, atBound };
+  };
+
+  if (pf === 0) return finish(true, "xtol", 0);
+  if (!factor()) return finish(false, "not-finite", 0);
+  if (F === 0) return finish(true, "zero-residual", 0);
+
+  let lambda = 1e-3;
+  let nu = 2;
+  const M = new Float64Array(2 * pf * pf);
+  const rhs = new Float64Array(2 * pf);
+
+  for (let it = 1; it <= opts.maxIterations; it++) {
+    if (gradientCosine() <= opts.gtol) return finish(true, "gtol", it - 1);
+    // Solve min ‖[R; √λ D] h + [Qᵀr; 0]‖ by a small QR.
+    M.fill(0);
+    rhs.fill(0);
+    const m = 2 * pf;
+    for (let k = 0; k < pf; k++) {
+      for (let i = 0; i <= k; i++) M[k * m + i] = R[i * pf + k]!;
+      M[k * m + pf + k] = Math.sqrt(lambda) * D[k]!;
+      rhs[k] = -qtr[k]!;
+    }
+    const R2 = householderQR(M, m, pf, [rhs]);
+    const h = solveUpper(R2, pf, rhs);
+    if (!h) {
+      lambda *= nu;
+      nu *= 2;
+      if (lambda > 1e30) return finish(false, "no-progress", it);
+      continue;
+    }
+    xTrial.set(x);
+    for (let k = 0; k < pf; k++) {
+      const j = freeIndex[k]!;
+      xTrial[j] = Math.min(upper[j]!, Math.max(lower[j]!, x[j]! + h[k]!));
+    }
+    // Predicted reduction of ‖r‖² for the (possibly projected) step: ‖Qᵀr‖² − ‖Qᵀr + R h‖².
+    let pred = 0,
+      stepScaled = 0,
+      xScaled = 0;
+    for (let i = 0; i < pf; i++) {
+      let rh = qtr[i]!;
+      for (let k = i; k < pf; k++) rh += R[i * pf + k]! * (xTrial[freeIndex[k]!]! - x[freeIndex[k]!]!);
+      pred += qtr[i]! * qtr[i]! - rh * rh;
+      const j = freeIndex[i]!;
+      stepScaled += (D[i]! * (xTrial[j]! - x[j]!)) ** 2;
+      xScaled += (D[i]! * x[j]!) ** 2;
+    }
+    stepScaled = Math.sqrt(stepScaled);
+    xScaled = Math.sqrt(xScaled);
+    // Each parameter's own step must be small relative to its value, so a small parameter is not left
+    // half-converged beside a large one (the scaled norm alone allows that).
+    let everyStepSmall = true;
+    for (let k = 0; k < pf; k++) {
+      const j = freeIndex[k]!;
+      if (Math.abs(xTrial[j]! - x[j]!) > opts.xtol * Math.abs(x[j]!) && D[k]! * Math.abs(xTrial[j]! - x[j]!) > 1e-15 * xScaled)
+        everyStepSmall = false;
+    }
+    problem.residuals(xTrial, rTrial);
+    evaluations++;
+    const Fn = sumsq(rTrial);
+    const actual = F - Fn;
+    const rho = Number.isFinite(Fn) && pred > 0 ? actual / pred : -1;
+
+    if (rho > 0) {
+      x.set(xTrial);
+      r.set(rTrial);
+      const Fold = F;
+      F = Fn;
+      lambda *= Math.max(1 / 3, 1 - (2 * rho - 1) ** 3);
+      nu = 2;
+      if (F === 0) return finish(true, "zero-residual", it);
+      if (!factor()) return finish(false, "not-finite", it);
+      if (actual <= opts.ftol * Fold && pred <= opts.ftol * Fold) return finish(true, "ftol", it);
+      if (everyStepSmall) return finish(true, "xtol", it);
+    } else {
+      // Even a rejected step can show that no further progress is possible at this precision.
+      if (everyStepSmall && lambda < 1e10) return finish(true, "xtol", it);
+      lambda *= nu;
+      nu *= 2;
+      if (lambda > 1e30) {
+        // Stuck: converged only if the gradient is negligible at double precision.
+        return finish(gradientCosine() <= 1e-8, "no-progress", it);
+      }
+    }
+  }
+  return finish(false, "max-iterations", opts.maxIterations);
+}

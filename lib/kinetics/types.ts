@@ -1,0 +1,50 @@
+// Result types shared by every fit the engine makes.
+
+export interface ParameterEstimate {
+  name: string;
+  /** Null only when the fit failed: start values are never handed back as an answer. */
+  value: number | null;
+  se: number | null;
+  ci95: [number, number] | null;
+  fixed: boolean;
+}
+
+export type Weighting =
+  | { kind: "none" }
+  /** Weights known up to a factor: covariance scaled by s². */
+  | { kind: "relative"; weights: ArrayLike<number> }
+  /** Known standard deviations: covariance (JᵀWJ)⁻¹, not scaled. */
+  | { kind: "absolute"; sigma: ArrayLike<number> };
+
+export interface FitResult {
+  model: string;
+  /** The user formula as read, for model "formula". */
+  formula?: string;
+  n: number;
+  parameters: ParameterEstimate[];
+  ssr: number | null;
+  dof: number;
+  r2: number | null;
+  rmse: number | null;
+  aicc: number | null;
+  runs: number | null;
+  runs_z: number | null;
+  runs_p: number | null;
+  durbin_watson: number | null;
+  converged: boolean;
+  iterations: number;
+  message: string;
+  /** Correlation matrix of the free parameters (names in `correlation_names`). */
+  correlation: number[][] | null;
+  correlation_names: string[];
+  warnings: string[];
+  weighting: Weighting["kind"];
+  residuals: number[];
+  fitted: number[];
+}
+
+export interface ModelFunction {
+  params: readonly string[];
+  evaluate(t: Float64Array, p: ArrayLike<number>, out: Float64Array): void;
+  jacobian(t: Float64Array, p: ArrayLike<number>, J: Float64Array): void;
+}

@@ -1,0 +1,308 @@
+// Delimited text exports (comma, semicolon, tab or whitespace; decimal point or comma; a metadata block before the
+// header row; one or many channels). papaparse tokenises the table; typing, units and time are ours.
+import Papa from "papaparse";
+import { percentTToAbsorbance, timeUnitFactor, type Quantity } from "@/lib/units";
+import { readMetadata } from "../metadata";
+import { decodeText, readNumber, splitLines } from "../text";
+import { ParseError, type ParsedExport, type ParsedSeries } from "../types";
+import { classifyTime, timeReader } from "./time";
+
+export type Delimiter = "," | ";" | "\t" | "whitespace";
+
+interface Dialect {
+  delimiter: Delimiter;
+  decimalComma: boolean;
+}
+
+const CANDIDATES: Delimiter[] = ["\t", ";", ",", "whitespace"];
+
+export function splitCells(line: string, d: Delimiter): string[] {
+  if (d === "whitespace") return line.trim().split(/\s+/);
+  return line.split(d);
+}
+
+/** A line that could be a data row: two or more cells, the first a time. */
+function looksLikeData(cells: string[]): boolean {
+  return cells.length >= 2 && classifyTime(cells[0]!.replace(/^"|"$/g, "")) !== null;
+}
+
+/** Picks the delimiter that splits the most lines into rows that start with a time. */
+export function sniffDialect(lines: readonly string[]): Dialect | null {
+  let best: { d: Delimiter; score: number } | null = null;
+  const sample = lines.length > 400 ? [...lines.slice(0, 200), ...lines.slice(-200)] : lines;
+  for (const d of CANDIDATES) {
+    let score = 0;
+    for (const l of sample) {
+      if (!l.trim()) continue;
+      const cells = splitCells(l, d);
+      if (looksLikeData(cells)) score += 1 + Math.min(cells.length, 16) / 100;
+    }
+    if (score > 0 && (!best || score > best.score + 1e-9)) best = { d, score };
+  }
+  if (!best) return null;
+  // Decimal comma: only where the delimiter is not itself a comma, and numbers use a comma and no point.
+  let comma = 0,
+    point = 0;
+  if (best.d !== ",") {
+    for (const l of sample) {
+      for (const c of splitCells(l, best.d)) {
+        if (/^[+-]?\d+,\d+([eE][+-]?\d+)?$/.test(c.trim())) comma++;
+        else if (/^[+-]?\d*\.\d+([eE][+-]?\d+)?$/.test(c.trim())) point++;
+      }
+    }
+  }
+  return { delimiter: best.d, decimalComma: comma > point };
+}
+
+const TIME_HEADER = /^(time|t|zeit|temps|tiempo|elapsed|clock|time of day|tod|date|datetime|timestamp)\b|^t\s*[/(\[]|^time/i;
+
+/** "Time (min)", "t/s", "Time [h]", "time_s" → the unit written with the header, if any. */
+export function headerUnit(header: string): string | null {
+  const h = header.trim();
+  const m = h.match(/[([]\s*([^)\]]+?)\s*[)\]]\s*$/) ?? h.match(/\/\s*([^/]+?)\s*$/) ?? h.match(/_(ms|s|sec|min|h|hr)$/i);
+  return m ? m[1]!.trim() : null;
+}
+
+interface ChannelKind {
+  quantity: Quantity;
+  unit: string;
+  percentT: boolean;
+  fromHeader: boolean;
+}
+
+function channelKind(header: string, defaultKind: ChannelKind | null): ChannelKind {
+  const h = header.trim();
+  const unit = headerUnit(h);
+  if (/%\s*T\b|\bT\s*%|transmittance|\btrans\b/i.test(h) || (unit && /^%\s*T?$/i.test(unit)))
+    return { quantity: "transmittance-converted absorbance", unit: "AU", percentT: true, fromHeader: true };
+  if (/^(a|abs|absorbance|od|optical density)\b/i.test(h) || (unit && /^(au|abs|a|od)$/i.test(unit)))
+    return { quantity: "absorbance", unit: "AU", percentT: false, fromHeader: true };
+  if (unit && /^(m|mm|µm|um|nm|mol\/l|mmol\/l|µmol\/l|umol\/l|mg\/l|g\/l|µg\/ml|ug\/ml|mg\/ml|ppm)$/i.test(unit))
+    return { quantity: "concentration", unit, percentT: false, fromHeader: true };
+  if (/^conc/i.test(h)) return { quantity: "concentration", unit: unit ?? "", percentT: false, fromHeader: true };
+  if (defaultKind) return defaultKind;
+  return { quantity: "absorbance", unit: "AU", percentT: false, fromHeader: false };
+}
+
+function unquote(c: string): string {
+  const t = c.trim();
+  return t.length >= 2 && t.startsWith('"') && t.endsWith('"') ? t.slice(1, -1).replace(/""/g, '"').trim() : t;
+}
+
+export interface LocatedTable {
+  warnings: string[];
+  decimalComma: boolean;
+  /** 0-based index of the header line, or −1. */
+  headerIdx: number;
+  headerCells: string[];
+  /** 0-based index of the first data line. */
+  first: number;
+  /** Table rows from `first` on, tokenised; row r is file line first + 1 + r. */
+  rows: string[][];
+  meta: ReturnType<typeof readMetadata>;
+}
+
+/** Finds the table in a delimited export: dialect, metadata block, header row, data rows (not yet typed). */
+export function locateTable(bytes: Uint8Array): LocatedTable {
+  const decoded = decodeText(bytes);
+  const warnings = [...decoded.warnings];
+  const lines = splitLines(decoded.text);
+  if (lines.every((l) => !l.trim())) throw new ParseError("The file is empty (it holds only blank lines).");
+
+  const dialect = sniffDialect(lines);
+  if (!dialect) {
+    const single = lines.findIndex((l) => classifyTime(l.trim()) !== null);
+    if (single >= 0) throw new ParseError("the file has only one column; a time column and at least one channel are needed", single + 1);
+    const meta = lines.filter((l) => /[:;=\t]/.test(l)).length;
+    throw new ParseError(
+      meta > 0
+        ? `The file has ${meta} line${meta > 1 ? "s" : ""} of metadata but no table of numbers (no row starts with a time followed by readings).`
+        : "No table of numbers was found: no row starts with a time followed by readings.",
+    );
+  }
+  const { delimiter, decimalComma } = dialect;
+
+  // The table starts at the first of two successive data-like rows with the same number of cells (a lone
+  // "1;2" in a metadata block is not a table), or at a lone data row that ends the file.
+  const cellsOf = (i: number) => splitCells(lines[i]!, delimiter);
+  let first = -1;
+  for (let i = 0; i < lines.length; i++) {
+    const c = cellsOf(i);
+    if (!looksLikeData(c)) continue;
+    let j = i + 1;
+    while (j < lines.length && !lines[j]!.trim()) j++;
+    if (j >= lines.length || (looksLikeData(cellsOf(j)) && cellsOf(j).length === c.length) || !looksLikeData(cellsOf(j))) {
+      first = i;
+      break;
+    }
+  }
+  // The header: the nearest non-blank line above the table, if it is not metadata-shaped data.
+  let headerIdx = -1;
+  for (let i = first - 1; i >= 0; i--) {
+    if (!lines[i]!.trim()) continue;
+    headerIdx = i;
+    break;
+  }
+  if (first < 0) {
+    // Rows of cells but none starting with a time: a header with no data, or a table whose times are unreadable.
+    const hdr = lines.findIndex((l) => splitCells(l, delimiter).length >= 2);
+    throw new ParseError("a header row but no data rows below it", hdr + 1);
+  }
+  const dataWidth = cellsOf(first).length;
+  let headerCells: string[] | null = null;
+  if (headerIdx >= 0) {
+    const hc = parseRow(lines[headerIdx]!, delimiter).map(unquote);
+    const trimmed = trimTrailingEmpty(hc, dataWidth);
+    if (trimmed.length === dataWidth && !looksLikeData(hc)) headerCells = trimmed;
+  }
+  const metaEnd = headerCells ? headerIdx : first;
+  const meta = readMetadata(lines.slice(0, metaEnd).map((text, i) => ({ text, line: i + 1 })));
+  if (meta.declaredEncoding) {
+    const declared = meta.declaredEncoding.name.toLowerCase().replace(/[^a-z0-9]/g, "");
+    const actual = decoded.encoding.replace(/[^a-z0-9]/g, "");
+    const compatible =
+      declared.startsWith(actual.slice(0, 5)) ||
+      (["ascii", "usascii"].includes(declared) && actual === "utf8") ||
+      (["latin1", "iso88591", "cp1252", "windows1252", "ansi"].includes(declared) && (actual === "windows1252" || !/[^\x00-\x7f]/.test(decoded.text)));
+    if (!compatible)
+      throw new ParseError(`the file declares its encoding as "${meta.declaredEncoding.name}" but its bytes are ${decoded.encoding.toUpperCase()}; export it again or correct the declaration`, meta.declaredEncoding.line);
+  }
+  if (!headerCells) {
+    headerCells = Array.from({ length: dataWidth }, (_, i) => (i === 0 ? "Time" : `Channel ${i}`));
+    warnings.push(`No header row was found above the table (line ${first + 1}); columns are named Time, Channel 1, ….`);
+  }
+
+  // Tokenise the table with papaparse (quoted fields, its fast path when there are none).
+  let last = lines.length - 1;
+  while (last > first && !looksLikeData(cellsOf(last))) last--;
+  const trailing = lines.slice(last + 1).map((l, i) => [l, last + 2 + i] as const).filter(([l]) => l.trim());
+  if (trailing.length) warnings.push(`${trailing.length} line(s) after the table were not read (from line ${trailing[0]![1]}).`);
+  const rows = tokenize(lines.slice(first, last + 1), delimiter);
+
+  return { warnings, decimalComma, headerIdx, headerCells, first, rows, meta };
+}
+
+export function parseDelimitedText(bytes: Uint8Array): ParsedExport {
+  const { warnings, decimalComma, headerIdx, headerCells, first, rows, meta } = locateTable(bytes);
+  // Columns: time (by header name, else the first), the rest channels.
+  let timeCol = headerCells.findIndex((h) => TIME_HEADER.test(h.trim()));
+  if (timeCol < 0) timeCol = 0;
+  const timeHeader = headerCells[timeCol]!;
+  const tUnit = headerUnit(timeHeader);
+  let unitFactor = tUnit ? timeUnitFactor(tUnit) : null;
+  if (tUnit && unitFactor === null && !/^(hh?:mm(:ss)?|mm:ss|clock|iso.*|utc|local)$/i.test(tUnit))
+    throw new ParseError(`the time column's unit "${tUnit}" is not a unit of time`, (headerIdx >= 0 ? headerIdx : first) + 1);
+  if (unitFactor === null && meta.timeUnit) unitFactor = meta.timeUnit.factor;
+  const firstTime = rows[0]![timeCol] ?? "";
+  const reader = timeReader(unquote(firstTime), {
+    unitFactor: unitFactor ?? 1,
+    decimalComma,
+    clockHint: /clock|time of day|\btod\b|uhrzeit/i.test(timeHeader),
+    elapsedHint: /elapsed|duration|relative/i.test(timeHeader),
+  });
+  if (reader.format === "number" && unitFactor === null) warnings.push(`The time column "${timeHeader}" gives no unit anywhere; its numbers were taken as seconds.`);
+  warnings.push(...reader.warnings);
+
+  const defaultKind = metadataKind(meta.metadata);
+  const channels = headerCells.map((h, i) => ({ h, i })).filter(({ i }) => i !== timeCol);
+  if (channels.length === 0) throw new ParseError("the table has only a time column; at least one channel is needed", first + 1);
+  const kinds = channels.map(({ h }) => channelKind(h, defaultKind));
+  if (kinds.some((k) => !k.fromHeader) && !defaultKind)
+    warnings.push(`No unit was given for ${channels.filter((_, q) => !kinds[q]!.fromHeader).map((c) => `"${c.h}"`).join(", ")}: the readings were taken as absorbance.`);
+
+  const t: number[] = [];
+  const ys = channels.map(() => [] as number[]);
+  const ts = channels.map(() => [] as number[]);
+  const skipped = channels.map(() => [] as number[]);
+  let prevT = -Infinity;
+  let prevLine = 0;
+  for (let r = 0; r < rows.length; r++) {
+    const line = first + 1 + r;
+    const cells = rows[r]!;
+    if (cells.length === 1 && cells[0]!.trim() === "") continue; // blank line inside the table
+    const cellsT = trimTrailingEmpty(cells, headerCells.length);
+    if (cellsT.length !== headerCells.length)
+      throw new ParseError(`the row has ${cellsT.length} cell${cellsT.length === 1 ? "" : "s"} but the header has ${headerCells.length}`, line);
+    const tv = reader.read(unquote(cellsT[timeCol]!), line);
+    if (tv < prevT) throw new ParseError(`the time goes backwards (${unquote(cellsT[timeCol]!)} is earlier than the reading on line ${prevLine})`, line);
+    prevT = tv;
+    prevLine = line;
+    t.push(tv);
+    channels.forEach(({ h, i }, q) => {
+      const raw = unquote(cellsT[i]!);
+      const v = readNumber(raw, decimalComma);
+      if (v === "partial") throw new ParseError(`"${h}" holds "${raw}", which is not a number`, line);
+      const kind = kinds[q]!;
+      const y = kind.percentT ? (v > 0 ? percentTToAbsorbance(v) : NaN) : v;
+      if (Number.isNaN(y)) skipped[q]!.push(line);
+      else {
+        ts[q]!.push(tv);
+        ys[q]!.push(y);
+      }
+    });
+  }
+  if (t.length === 0) throw new ParseError("a header row but no data rows below it", (headerIdx >= 0 ? headerIdx : first) + 1);
+
+  const series: ParsedSeries[] = channels.map(({ h }, q) => {
+    if (ys[q]!.length === 0)
+      throw new ParseError(`the channel "${h}" has no numbers at all`, (headerIdx >= 0 ? headerIdx : first) + 1);
+    const wl = h.match(/(\d+(?:[.,]\d+)?)\s*nm\b/i);
+    const kind = kinds[q]!;
+    if (kind.percentT && skipped[q]!.length) warnings.push(`"${h}": readings of 0 %T or below have no absorbance and were skipped.`);
+    return {
+      name: h,
+      quantity: kind.quantity,
+      unit: kind.unit,
+      t: ts[q]!,
+      y: ys[q]!,
+      skipped_lines: skipped[q]!,
+      ...(wl ? { metadata: { wavelength_nm: Number(wl[1]!.replace(",", ".")) } } : {}),
+    };
+  });
+  for (const s of series)
+    if (s.skipped_lines.length) warnings.push(`"${s.name}": ${s.skipped_lines.length} empty or non-numeric cell(s) skipped (lines ${s.skipped_lines.slice(0, 8).join(", ")}${s.skipped_lines.length > 8 ? ", …" : ""}).`);
+
+  const metadata = { ...meta.metadata };
+  if (metadata.wavelength_nm === undefined && series.length === 1 && series[0]!.metadata?.wavelength_nm !== undefined)
+    metadata.wavelength_nm = series[0]!.metadata.wavelength_nm;
+  return {
+    parser: "delimited",
+    metadata,
+    series,
+    warnings,
+    header_line: headerIdx >= 0 && headerCells ? headerIdx + 1 : undefined,
+    columns: headerCells.map((h, i) => ({ index: i, header: h, role: i === timeCol ? "time" : "channel", unit: headerUnit(h) })),
+  };
+}
+
+function metadataKind(meta: Record<string, string | number>): ChannelKind | null {
+  for (const [k, v] of Object.entries(meta)) {
+    if (!/unit|mode|ordinate|y\s*axis|data type|measurement/i.test(k) || typeof v !== "string") continue;
+    if (/%\s*T|transmittance/i.test(v)) return { quantity: "transmittance-converted absorbance", unit: "AU", percentT: true, fromHeader: false };
+    if (/abs|absorbance|\bA\b|AU|OD/i.test(v)) return { quantity: "absorbance", unit: "AU", percentT: false, fromHeader: false };
+  }
+  return null;
+}
+
+function parseRow(line: string, d: Delimiter): string[] {
+  if (d === "whitespace") return splitCells(line, d);
+  const r = Papa.parse<string[]>(line, { delimiter: d, quoteChar: '"' });
+  return r.data[0] ?? [];
+}
+
+function tokenize(tableLines: string[], d: Delimiter): string[][] {
+  if (d === "whitespace") return tableLines.map((l) => (l.trim() ? splitCells(l, d) : [""]));
+  const r = Papa.parse<string[]>(tableLines.join("\n"), { delimiter: d, quoteChar: '"', newline: "\n", skipEmptyLines: false });
+  if (r.data.length !== tableLines.length) {
+    // A quoted field spanning lines would shift every line number after it: refuse rather than misnumber.
+    throw new ParseError("a quoted cell spans more than one line; line numbers could not be kept");
+  }
+  return r.data;
+}
+
+function trimTrailingEmpty(cells: string[], want: number): string[] {
+  let n = cells.length;
+  while (n > want && cells[n - 1]!.trim() === "") n--;
+  return n === cells.length ? cells : cells.slice(0, n);
+}
+
