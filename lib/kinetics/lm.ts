@@ -82,57 +82,76 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
     return { x, ssr: F, iterations: 0, evaluations, converged: false, stop: "not-finite", inverseHessian: null, ...base };
   }
 
-  // Factor J = QR at the current point; keep R, Qᵀr and the column norms.
+  // The working set: free parameters not held on a bound by a gradient that pushes outwards (an active-set
+  // projection; stepping them and clipping would stall the other parameters).
+  let work: number[] = freeIndex.map((_, k) => k);
+  let pw = pf;
+  // Factor J = QR over the working columns at the current point; keep R, Qᵀr and the column norms.
   let R: Float64Array = new Float64Array(pf * pf);
   let qtr: Float64Array = new Float64Array(pf);
   const colNorm = new Float64Array(pf);
-  const D = new Float64Array(pf); // scaling: running max of column norms (Moré)
+  const D = new Float64Array(pf); // scaling: running max of column norms (Moré), per free parameter
+  const grad = new Float64Array(pf);
   const factor = (): boolean => {
     problem.jacobian(x, Jfull);
     for (let k = 0; k < pf; k++) {
       const src = freeIndex[k]! * n;
-      let s = 0;
+      let s = 0,
+        g = 0;
       for (let i = 0; i < n; i++) {
         const v = Jfull[src + i]!;
-        Jf[k * n + i] = v;
         s += v * v;
+        g += v * r[i]!;
       }
+      if (!Number.isFinite(s) || !Number.isFinite(g)) return false;
       colNorm[k] = Math.sqrt(s);
       D[k] = Math.max(D[k]!, colNorm[k]!);
       if (D[k] === 0) D[k] = 1;
+      grad[k] = g;
+    }
+    work = [];
+    for (let k = 0; k < pf; k++) {
+      const j = freeIndex[k]!;
+      const heldLow = x[j] === lower[j] && grad[k]! > 0;
+      const heldHigh = x[j] === upper[j] && grad[k]! < 0;
+      if (!heldLow && !heldHigh) work.push(k);
+    }
+    pw = work.length;
+    for (let q = 0; q < pw; q++) {
+      const src = freeIndex[work[q]!]! * n;
+      for (let i = 0; i < n; i++) Jf[q * n + i] = Jfull[src + i]!;
     }
     const rr = Float64Array.from(r);
-    R = householderQR(Jf, n, pf, [rr]);
-    qtr = Float64Array.from(rr.subarray(0, pf));
+    R = householderQR(Jf, n, pw, [rr]);
+    qtr = Float64Array.from(rr.subarray(0, pw));
     for (let i = 0; i < R.length; i++) if (!Number.isFinite(R[i]!)) return false;
     return true;
   };
 
+  /** Largest cosine between r and a working Jacobian column (the projected gradient test). */
   const gradientCosine = (): number => {
-    // g = Jᵀr = Rᵀ qtr; cosine_j = |g_j| / (||J_j|| ||r||)
     const rn = Math.sqrt(F);
     if (rn === 0) return 0;
     let worst = 0;
-    for (let j = 0; j < pf; j++) {
-      if (colNorm[j] === 0) continue;
-      let g = 0;
-      for (let k = 0; k <= j; k++) g += R[k * pf + j]! * qtr[k]!;
-      worst = Math.max(worst, Math.abs(g) / (colNorm[j]! * rn));
-    }
+    for (const k of work) if (colNorm[k]! > 0) worst = Math.max(worst, Math.abs(grad[k]!) / (colNorm[k]! * rn));
     return worst;
+  };
+
+  const project = (h: Float64Array) => {
+    xTrial.set(x);
+    for (let q = 0; q < pw; q++) {
+      const j = freeIndex[work[q]!]!;
+      xTrial[j] = Math.min(upper[j]!, Math.max(lower[j]!, x[j]! + h[q]!));
+    }
   };
 
   // Near the optimum a few undamped Gauss–Newton steps recover the last digits that damping leaves behind.
   const polish = () => {
     for (let k = 0; k < 4; k++) {
-      if (!factor()) return;
-      const h = solveUpper(R, pf, qtr.map((v) => -v));
+      if (!factor() || pw === 0) return;
+      const h = solveUpper(R, pw, qtr.map((v) => -v));
       if (!h) return;
-      xTrial.set(x);
-      for (let q = 0; q < pf; q++) {
-        const j = freeIndex[q]!;
-        xTrial[j] = Math.min(upper[j]!, Math.max(lower[j]!, x[j]! + h[q]!));
-      }
+      project(h);
       problem.residuals(xTrial, rTrial);
       evaluations++;
       const Fn = sumsq(rTrial);
@@ -175,44 +194,43 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
 
   let lambda = 1e-3;
   let nu = 2;
-  const M = new Float64Array(2 * pf * pf);
-  const rhs = new Float64Array(2 * pf);
 
   for (let it = 1; it <= opts.maxIterations; it++) {
-    if (gradientCosine() <= opts.gtol) return finish(true, "gtol", it - 1);
+    if (pw === 0 || gradientCosine() <= opts.gtol) return finish(true, "gtol", it - 1);
     // Solve min ‖[R; √λ D] h + [Qᵀr; 0]‖ by a small QR.
-    M.fill(0);
-    rhs.fill(0);
-    const m = 2 * pf;
-    for (let k = 0; k < pf; k++) {
-      for (let i = 0; i <= k; i++) M[k * m + i] = R[i * pf + k]!;
-      M[k * m + pf + k] = Math.sqrt(lambda) * D[k]!;
-      rhs[k] = -qtr[k]!;
+    const m = 2 * pw;
+    const M = new Float64Array(m * pw);
+    const rhs = new Float64Array(m);
+    for (let q = 0; q < pw; q++) {
+      for (let i = 0; i <= q; i++) M[q * m + i] = R[i * pw + q]!;
+      M[q * m + pw + q] = Math.sqrt(lambda) * D[work[q]!]!;
+      rhs[q] = -qtr[q]!;
     }
-    const R2 = householderQR(M, m, pf, [rhs]);
-    const h = solveUpper(R2, pf, rhs);
+    const R2 = householderQR(M, m, pw, [rhs]);
+    const h = solveUpper(R2, pw, rhs);
     if (!h) {
       lambda *= nu;
       nu *= 2;
       if (lambda > 1e30) return finish(false, "no-progress", it);
       continue;
     }
-    xTrial.set(x);
-    for (let k = 0; k < pf; k++) {
-      const j = freeIndex[k]!;
-      xTrial[j] = Math.min(upper[j]!, Math.max(lower[j]!, x[j]! + h[k]!));
-    }
+    project(h);
     // Predicted reduction of ‖r‖² for the (possibly projected) step: ‖Qᵀr‖² − ‖Qᵀr + R h‖².
     let pred = 0,
       stepScaled = 0,
       xScaled = 0;
-    for (let i = 0; i < pf; i++) {
+    for (let i = 0; i < pw; i++) {
       let rh = qtr[i]!;
-      for (let k = i; k < pf; k++) rh += R[i * pf + k]! * (xTrial[freeIndex[k]!]! - x[freeIndex[k]!]!);
+      for (let q = i; q < pw; q++) {
+        const j = freeIndex[work[q]!]!;
+        rh += R[i * pw + q]! * (xTrial[j]! - x[j]!);
+      }
       pred += qtr[i]! * qtr[i]! - rh * rh;
-      const j = freeIndex[i]!;
-      stepScaled += (D[i]! * (xTrial[j]! - x[j]!)) ** 2;
-      xScaled += (D[i]! * x[j]!) ** 2;
+    }
+    for (let k = 0; k < pf; k++) {
+      const j = freeIndex[k]!;
+      stepScaled += (D[k]! * (xTrial[j]! - x[j]!)) ** 2;
+      xScaled += (D[k]! * x[j]!) ** 2;
     }
     stepScaled = Math.sqrt(stepScaled);
     xScaled = Math.sqrt(xScaled);
@@ -221,8 +239,8 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
     let everyStepSmall = true;
     for (let k = 0; k < pf; k++) {
       const j = freeIndex[k]!;
-      if (Math.abs(xTrial[j]! - x[j]!) > opts.xtol * Math.abs(x[j]!) && D[k]! * Math.abs(xTrial[j]! - x[j]!) > 1e-15 * xScaled)
-        everyStepSmall = false;
+      const step = Math.abs(xTrial[j]! - x[j]!);
+      if (step > opts.xtol * Math.abs(x[j]!) && D[k]! * step > 1e-15 * xScaled) everyStepSmall = false;
     }
     problem.residuals(xTrial, rTrial);
     evaluations++;

@@ -51,8 +51,10 @@ export function fitLine(xIn: ArrayLike<number>, yIn: ArrayLike<number>, opts: Li
   const sumW = fsum(w);
   const wx = x.map((v, i) => v * w[i]!);
   const wy = y.map((v, i) => v * w[i]!);
-  const xMean = opts.throughOrigin ? 0 : fsum(wx) / sumW;
-  const yMean = opts.throughOrigin ? 0 : fsum(wy) / sumW;
+  // Means with a second correcting pass: the first pass's rounding matters when x is large (a time stamp).
+  const refine = (m: number, v: Float64Array) => m + fsum(v.map((q, i) => w[i]! * (q - m))) / sumW;
+  const xMean = opts.throughOrigin ? 0 : refine(fsum(wx) / sumW, x);
+  const yMean = opts.throughOrigin ? 0 : refine(fsum(wy) / sumW, y);
   const dx = x.map((v) => v - xMean);
   const dy = y.map((v) => v - yMean);
   const sxx = fsum(dx.map((v, i) => w[i]! * v * v));
@@ -61,7 +63,8 @@ export function fitLine(xIn: ArrayLike<number>, yIn: ArrayLike<number>, opts: Li
   const slope = sxy / sxx;
   const intercept = yMean - slope * xMean;
   const residuals: number[] = new Array(n);
-  for (let i = 0; i < n; i++) residuals[i] = y[i]! - (intercept + slope * x[i]!);
+  // Centred residuals: intercept + slope·x cancels catastrophically when x is far from zero.
+  for (let i = 0; i < n; i++) residuals[i] = dy[i]! - slope * dx[i]!;
   const ssr = fsum(residuals.map((r, i) => w[i]! * r * r));
   const dof = n - p;
   const absoluteSigma = Boolean(opts.sigma);
