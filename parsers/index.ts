@@ -13,6 +13,7 @@ export function rankParsers(bytes: Uint8Array, fileName: string): Array<{ parser
 }
 
 export function parseExport(bytes: Uint8Array, fileName: string, parserName?: string): ParsedExport | ParseError {
+  if (bytes.length === 0) return new ParseError("The file is empty.");
   if (parserName) {
     const p = PARSERS.find((x) => x.name === parserName);
     if (!p) return new ParseError(`There is no parser "${parserName}" (parsers: ${PARSERS.map((x) => x.name).join(", ")}).`);

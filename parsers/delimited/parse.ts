@@ -113,6 +113,11 @@ export function locateTable(bytes: Uint8Array): LocatedTable {
   if (!dialect) {
     const single = lines.findIndex((l) => classifyTime(l.trim()) !== null);
     if (single >= 0) throw new ParseError("the file has only one column; a time column and at least one channel are needed", single + 1);
+    const header = lines.findIndex((l) => {
+      const cells = l.split(/[,;\t]/);
+      return cells.length >= 2 && TIME_HEADER.test(unquote(cells[0]!));
+    });
+    if (header >= 0) throw new ParseError("a header row but no data rows below it", header + 1);
     const meta = lines.filter((l) => /[:;=\t]/.test(l)).length;
     throw new ParseError(
       meta > 0
