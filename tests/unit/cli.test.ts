@@ -1,0 +1,135 @@
+// The command-line contract (../shared/contracts/CLI.md): names, units and JSON fields, exit codes, refusals.
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { runCli } from "@/lib/cli/main";
+
+const CV = "fixtures/published/crystal-violet-590nm.csv";
+const FIX = "parsers/delimited/fixtures";
+
+function cli(...args: string[]) {
+  const r = spawnSync("npm", ["run", "--silent", "cli", "--", ...args], { encoding: "utf8" });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+function tmp(name: string, text: string): string {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-cli-"));
+  const f = path.join(dir, name);
+  fs.writeFileSync(f, text);
+  return f;
+}
+
+describe("npm run --silent cli (spawned, as outside checks run it)", () => {
+  it("parse prints the contract's JSON", () => {
+    const r = cli("parse", CV, "--json");
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j).toMatchObject({ parser: "delimited", metadata: { wavelength_nm: 590, path_length_cm: 1 } });
+    expect(j.series[0]).toMatchObject({ name: "A (590 nm)", quantity: "absorbance", unit: "AU", skipped_lines: [] });
+    expect(j.series[0].t).toEqual([0, 60, 180, 300, 420, 540, 660, 780, 900]);
+    expect(Array.isArray(j.warnings)).toBe(true);
+  });
+
+  it("fit --model first-order gives the contract's fields, per second (crystal violet, CHECKS.md)", () => {
+    const r = cli("fit", CV, "--model", "first-order", "--json");
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    for (const key of ["model", "n", "parameters", "ssr", "dof", "r2", "aicc", "runs", "durbin_watson", "converged", "iterations", "message"]) expect(j).toHaveProperty(key);
+    expect(j).toMatchObject({ model: "first-order", n: 9, dof: 6, runs: 4, converged: true });
+    const k = j.parameters.find((p: { name: string }) => p.name === "k");
+    expect(k.value * 60).toBeCloseTo(0.2902, 4);
+    expect(k.fixed).toBe(false);
+    expect(k.ci95[0]).toBeLessThan(k.value);
+    expect(j.aicc).toBeCloseTo(-99.34, 2);
+  });
+
+  it("a refused file exits non-zero with one line on stderr naming the line, and no stack trace", () => {
+    const r = cli("parse", `${FIX}/bad-half-number.csv`, "--json");
+    expect(r.code).not.toBe(0);
+    expect(r.out).toBe("");
+    expect(r.err).toMatch(/line 4: "A" holds "0\.5x26", which is not a number/);
+    expect(r.err).not.toMatch(/\bat .*\.ts:\d+/);
+  });
+});
+
+describe("cli verbs in-process", () => {
+  const run = async (...a: string[]) => {
+    const r = await runCli(a);
+    return { ...r, json: r.out ? JSON.parse(r.out) : null };
+  };
+
+  it("--fix holds a parameter: fixed true, se null, not counted in dof", async () => {
+    const r = await run("fit", CV, "--model", "first-order", "--fix", "ainf=0.04", "--json");
+    const ainf = r.json.parameters.find((p: { name: string }) => p.name === "ainf");
+    expect(ainf).toMatchObject({ value: 0.04, fixed: true, se: null });
+    expect(r.json.dof).toBe(7);
+  });
+
+  it("linearized with --fix ainf, guggenheim and kezdy-swinbourne with --interval", async () => {
+    const lin = await run("fit", CV, "--model", "linearized", "--fix", "ainf=0.04", "--json");
+    expect(lin.json.parameters.map((p: { name: string }) => p.name)).toEqual(["k", "a0", "ainf"]);
+    const g = await run("fit", CV, "--model", "guggenheim", "--interval", "360", "--json");
+    expect(g.code).toBe(0);
+    expect(g.json.model).toBe("guggenheim");
+    const ks = await run("fit", CV, "--model", "kezdy-swinbourne", "--interval", "120", "--json");
+    expect(ks.json.parameters.map((p: { name: string }) => p.name)).toEqual(["k", "ainf"]);
+  });
+
+  it("--formula with ^, atan and pi; its parameters are the free names", async () => {
+    const f = tmp("misra.csv", "Time (s),y\n" + [0, 1, 2, 3, 4, 5, 6, 8].map((t) => `${t},${(3 * (1 - Math.exp(-0.4 * t)) + 0.1 * Math.atan(t) / Math.PI) ** 1}`).join("\n"));
+    const r = await run("fit", f, "--formula", "b1*(1-exp(-b2*t)) + b3*atan(t)/pi", "--start", "b1=2", "--start", "b2=0.3", "--start", "b3=0", "--json");
+    expect(r.code).toBe(0);
+    expect(r.json.parameters.map((p: { name: string }) => p.name)).toEqual(["b1", "b2", "b3"]);
+    expect(r.json.parameters[1].value).toBeCloseTo(0.4, 8);
+  });
+
+  it("--series picks a channel by name; an unknown one is refused", async () => {
+    const r = await run("fit", `${FIX}/cv-clock-midnight.csv`, "--series", "Cell 2 (A)", "--model", "first-order", "--json");
+    expect(r.json.n).toBe(7);
+    expect(r.json.series).toBe("Cell 2 (A)");
+    const bad = await run("fit", `${FIX}/cv-clock-midnight.csv`, "--series", "Cell 9", "--json");
+    expect(bad.code).not.toBe(0);
+    expect(bad.err).toMatch(/there is no series "Cell 9"/);
+  });
+
+  it("a fit that does not converge exits 0 with converged false and a message", async () => {
+    const r = await run("fit", CV, "--formula", "b1*exp(b2*t)", "--start", "b1=1", "--start", "b2=50", "--json");
+    expect(r.code).toBe(0);
+    expect(r.json.converged).toBe(false);
+    expect(r.json.message).toMatch(/failed/);
+    expect(r.json.parameters.every((p: { value: unknown }) => p.value === null)).toBe(true);
+  });
+
+  it("bad options are refused with a usage hint", async () => {
+    expect((await run("fit", CV, "--fix", "ainf", "--json")).err).toMatch(/write it as NAME=NUMBER/);
+    expect((await run("fit", CV, "--model", "nope", "--json")).err).toMatch(/There is no model "nope"/);
+    expect((await run("frobnicate", CV)).code).toBe(2);
+    expect((await run("parse", "no/such/file.csv", "--json")).err).toMatch(/no such file/);
+  });
+
+  it("arrhenius over °C or K, with and without standard errors (N2O5, CHECKS.md)", async () => {
+    const r = await run("arrhenius", "fixtures/published/n2o5-arrhenius.csv", "--json");
+    expect(r.json.n).toBe(3);
+    expect(r.json.ea.unit).toBe("J/mol");
+    expect(r.json.ea.value / 1000).toBeCloseTo(103.49, 2);
+    expect(r.json.ea.se / 1000).toBeCloseTo(0.8, 2);
+    expect(r.json.eyring.dH.unit).toBe("J/mol");
+    expect(r.json.eyring.dS.unit).toBe("J/(mol K)");
+    const c = tmp("c.csv", "T (°C),k (1/s),SE\n24.85,3.5e-5,0.2e-5\n44.85,5.0e-4,0.3e-4\n64.85,4.9e-3,0.2e-3\n");
+    const w = await run("arrhenius", c, "--json");
+    expect(w.json.weighted).toBe(true);
+    expect(w.json.ea.ci95).toHaveLength(2);
+    const two = await run("arrhenius", tmp("two.csv", "T (K),k\n298,3.5e-5\n318,5.0e-4\n"), "--json");
+    expect(two.json.ea.se).toBeNull();
+    const none = await run("arrhenius", tmp("bad.csv", "Temp,k\n298,1\n318,2\n"), "--json");
+    expect(none.err).toMatch(/no temperature column: put °C or K in its header/);
+  });
+
+  it("ingest is marked as not built yet", async () => {
+    const r = await run("ingest", CV, "--json");
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/not built yet/);
+  });
+});
