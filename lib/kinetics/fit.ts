@@ -2,7 +2,7 @@
 import { compileFormula, FormulaError } from "./formula";
 import { guggenheim, kezdySwinbourne, linearizedFirstOrder } from "./linearized";
 import { BUILT_IN_MODELS } from "./models";
-import { failedFit, fitNonlinear } from "./nls";
+import { asFloat64, failedFit, fitNonlinear } from "./nls";
 import type { FitResult, Weighting } from "./types";
 
 export const MODEL_NAMES = ["first-order", "linearized", "guggenheim", "kezdy-swinbourne", "zero-order", "second-order", "biexponential"] as const;
@@ -19,6 +19,10 @@ export interface FitSpec {
   /** Linearized fit: weight by (y − A∞)². */
   logWeights?: boolean;
 }
+
+/** Built-in models on series this long factor each LM step by the scaled normal equations (bench: ~4x faster at
+ * 1e6 points; QR takes over when the scaled JᵀJ is ill-conditioned, and the covariance always comes from QR). */
+const NORMAL_EQUATIONS_FROM = 20_000;
 
 export class FitSpecError extends Error {
   override name = "FitSpecError";
@@ -43,8 +47,8 @@ export function fitKinetics(t: ArrayLike<number>, y: ArrayLike<number>, spec: Fi
     return { ...r, model: "formula", formula: f.expression };
   }
   const name = spec.model ?? "first-order";
-  const tt = Float64Array.from(t),
-    yy = Float64Array.from(y);
+  const tt = asFloat64(t),
+    yy = asFloat64(y);
   switch (name) {
     case "linearized": {
       if ("ainf" in fixed) return linearizedFirstOrder(tt, yy, { ainf: fixed.ainf!, ainfSource: "fixed at the given value", weighted: spec.logWeights });
@@ -66,7 +70,14 @@ export function fitKinetics(t: ArrayLike<number>, y: ArrayLike<number>, spec: Fi
   const auto = model.starts(tt, yy, fixed);
   const starts = spec.start ? [{ ...auto[0], ...spec.start }, ...auto] : auto;
   const run = (s: Array<Record<string, number>>) =>
-    fitNonlinear(name, model, tt, yy, { start: s[0]!, alternativeStarts: s.slice(1), fixed, lower: model.lower, weighting: spec.weighting });
+    fitNonlinear(name, model, tt, yy, {
+      start: s[0]!,
+      alternativeStarts: s.slice(1),
+      fixed,
+      lower: model.lower,
+      weighting: spec.weighting,
+      solver: tt.length >= NORMAL_EQUATIONS_FROM ? "normal-equations" : "qr",
+    });
   let r = run(starts);
   if (r.converged && model.normalise) {
     const values = Object.fromEntries(r.parameters.map((p) => [p.name, p.value!]));

@@ -31,8 +31,8 @@ function lineResult(model: string, line: LineFit, parameters: ParameterEstimate[
     correlation_names: [],
     warnings,
     weighting,
-    residuals: line.residuals,
-    fitted: Array.from(xs, (x) => line.intercept + line.slope * x),
+    residuals: Float64Array.from(line.residuals),
+    fitted: Float64Array.from(xs, (x) => line.intercept + line.slope * x),
   };
 }
 

@@ -1,7 +1,7 @@
 // Levenberg–Marquardt for nonlinear least squares: damping scaled by diag(JᵀJ) (Moré), steps from a QR of J (never the
 // normal equations), acceptance by the gain ratio with Nielsen's damping update, relative convergence tests, box bounds
 // by projection, fixed parameters.
-import { householderQR, inverseRtR, solveUpper } from "./linalg";
+import { gramFactor, householderQR, inverseRtR, solveUpper, streamingQR } from "./linalg";
 
 export interface LsqProblem {
   /** Number of residuals. */
@@ -25,6 +25,13 @@ export interface LmOptions {
   xtol?: number;
   /** Largest cosine between the residual vector and a Jacobian column at convergence. */
   gtol?: number;
+  /**
+   * How each step's least-squares problem is factored. "qr" (default) keeps the condition number of J;
+   * "normal-equations" forms the column-scaled JᵀJ in one pass and falls back to QR whenever its Cholesky factor
+   * shows a condition number above 1e6 (for long, well-conditioned built-in models, where it is several times faster).
+   * The covariance at the solution always comes from a QR of J.
+   */
+  solver?: "qr" | "normal-equations";
 }
 
 export type LmStop = "ftol" | "xtol" | "gtol" | "zero-residual" | "max-iterations" | "no-progress" | "not-finite";
@@ -71,7 +78,6 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
   const r = new Float64Array(n);
   const rTrial = new Float64Array(n);
   const Jfull = new Float64Array(n * p);
-  const Jf = new Float64Array(n * pf);
   const xTrial = new Float64Array(p);
   let evaluations = 1;
 
@@ -94,6 +100,21 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
   const grad = new Float64Array(pf);
   const factor = (): boolean => {
     problem.jacobian(x, Jfull);
+    // With the normal equations the Gram pass gives the column norms and the gradient too; skip a pass over J.
+    const gram = opts.solver === "normal-equations" && work.length === pf ? gramFactor(Jfull, n, freeIndex, r) : null;
+    if (gram) {
+      for (let k = 0; k < pf; k++) {
+        colNorm[k] = Math.sqrt(gram.G[k * pf + k]!);
+        D[k] = Math.max(D[k]!, colNorm[k]!) || 1;
+        grad[k] = gram.g[k]!;
+      }
+      const held = freeIndex.some((j, k) => (x[j] === lower[j] && grad[k]! > 0) || (x[j] === upper[j] && grad[k]! < 0));
+      if (!held) {
+        R = gram.R;
+        qtr = gram.qtb;
+        return R.every(Number.isFinite);
+      }
+    }
     for (let k = 0; k < pf; k++) {
       const src = freeIndex[k]! * n;
       let s = 0,
@@ -117,13 +138,16 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
       if (!heldLow && !heldHigh) work.push(k);
     }
     pw = work.length;
-    for (let q = 0; q < pw; q++) {
-      const src = freeIndex[work[q]!]! * n;
-      for (let i = 0; i < n; i++) Jf[q * n + i] = Jfull[src + i]!;
+    const cols = work.map((k) => freeIndex[k]!);
+    const fromGram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, cols, r) : null;
+    if (fromGram) {
+      R = fromGram.R;
+      qtr = fromGram.qtb;
+    } else {
+      const qr = streamingQR(Jfull, n, cols, r);
+      R = qr.R;
+      qtr = qr.qtb;
     }
-    const rr = Float64Array.from(r);
-    R = householderQR(Jf, n, pw, [rr]);
-    qtr = Float64Array.from(rr.subarray(0, pw));
     for (let i = 0; i < R.length; i++) if (!Number.isFinite(R[i]!)) return false;
     return true;
   };
@@ -165,19 +189,19 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
   };
 
   const finish = (converged: boolean, stop: LmStop, iterations: number): LmResult => {
-    if (converged && pf > 0 && F > 0) polish();
+    // (The normal-equations path is for long, well-conditioned series, whose steps already meet xtol.)
+    if (converged && pf > 0 && F > 0 && opts.solver !== "normal-equations") polish();
     const atBound = freeIndex.filter((j) => x[j] === lower[j] || x[j] === upper[j]);
     let inverseHessian: Float64Array | null = null;
     if (pf > 0 && factor()) {
-      // Scale columns to unit norm so the rank test and the inverse do not depend on parameter units.
-      // (Jf holds the QR of factor(); the Jacobian itself is still in Jfull.)
-      const Js = new Float64Array(n * pf);
-      for (let k = 0; k < pf; k++) {
-        const c = colNorm[k]! || 1;
-        const src = freeIndex[k]! * n;
-        for (let i = 0; i < n; i++) Js[k * n + i] = Jfull[src + i]! / c;
-      }
-      const Rs = householderQR(Js, n, pf);
+      // QR of J·S with S = diag(1/‖J_k‖) is R·S: scaling the columns makes the rank test and the inverse independent
+      // of parameter units without a second factorisation.
+      // A well-conditioned Gram factor is accurate enough here (its error grows with cond², which it has bounded);
+      // otherwise, and always on the QR path, the R of J itself.
+      const gram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, freeIndex, r) : null;
+      const Rall = gram ? gram.R : streamingQR(Jfull, n, freeIndex, r).R;
+      const Rs = new Float64Array(pf * pf);
+      for (let i = 0; i < pf; i++) for (let k = i; k < pf; k++) Rs[i * pf + k] = Rall[i * pf + k]! / (colNorm[k]! || 1);
       const Cs = inverseRtR(Rs, pf);
       if (Cs) {
         inverseHessian = new Float64Array(pf * pf);

@@ -15,9 +15,16 @@ export interface NlsOptions {
   upper?: Record<string, number>;
   weighting?: Weighting;
   maxIterations?: number;
+  /** See LmOptions.solver; built-in models on long series use the normal equations (with a QR fallback). */
+  solver?: "qr" | "normal-equations";
 }
 
 export const CORRELATION_WARNING = 0.95;
+
+/** The engine never changes its inputs, so a Float64Array is used as it is (no 8 MB copy per million points). */
+export function asFloat64(a: ArrayLike<number>): Float64Array {
+  return a instanceof Float64Array ? a : Float64Array.from(a);
+}
 
 function weightsOf(w: Weighting, n: number): Float64Array | null {
   if (w.kind === "none") return null;
@@ -71,14 +78,14 @@ export function failedFit(modelName: string, params: readonly string[], n: numbe
     correlation_names: [],
     warnings: [],
     weighting: "none",
-    residuals: [],
-    fitted: [],
+    residuals: new Float64Array(0),
+    fitted: new Float64Array(0),
   };
 }
 
 export function fitNonlinear(modelName: string, model: ModelFunction, tIn: ArrayLike<number>, yIn: ArrayLike<number>, opts: NlsOptions): FitResult {
-  const t = Float64Array.from(tIn);
-  const y = Float64Array.from(yIn);
+  const t = asFloat64(tIn);
+  const y = asFloat64(yIn);
   const n = t.length;
   const P = model.params.length;
   const fixed = opts.fixed ?? {};
@@ -117,7 +124,7 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
   let startsTried = 0;
   for (const s of [opts.start, ...(opts.alternativeStarts ?? [])]) {
     startsTried++;
-    const res = levenbergMarquardt(problem, vec(s), { free, lower, upper, maxIterations: opts.maxIterations });
+    const res = levenbergMarquardt(problem, vec(s), { free, lower, upper, maxIterations: opts.maxIterations, solver: opts.solver });
     if (res.converged && Number.isFinite(res.ssr) && (!best || !best.converged || res.ssr < best.ssr)) best = res;
     else if (!best) best = res;
     if (best.converged) break;
@@ -193,7 +200,6 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
     ssr += resid[i]! ** 2;
   }
   const rt = runsTest(resid);
-  const residList = Array.from(resid);
   return {
     model: modelName,
     n,
@@ -214,7 +220,7 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
     correlation_names: correlationNames,
     warnings,
     weighting: weighting.kind,
-    residuals: residList,
-    fitted: Array.from(fbuf),
+    residuals: resid,
+    fitted: fbuf,
   };
 }

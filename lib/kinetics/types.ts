@@ -39,8 +39,9 @@ export interface FitResult {
   correlation_names: string[];
   warnings: string[];
   weighting: Weighting["kind"];
-  residuals: number[];
-  fitted: number[];
+  /** y − fitted, in data units, one per point (typed, so a million points cost 8 MB, not a JS array). */
+  residuals: Float64Array;
+  fitted: Float64Array;
 }
 
 export interface ModelFunction {
