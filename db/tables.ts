@@ -44,11 +44,64 @@ export interface DbAuditEventRow {
   hash: string;
 }
 
+export interface DbRawFileRow {
+  id: number;
+  lab_id: number;
+  sha256: string;
+  name: string;
+  size: number;
+  bytes: Buffer;
+  uploaded_by: number | null;
+  uploaded_at: string;
+}
+
+export interface DbRunRow {
+  id: number;
+  lab_id: number;
+  raw_file_id: number;
+  name: string;
+  parser: string;
+  study: string | null;
+  wavelength_nm: number | null;
+  path_length_cm: number | null;
+  temperature_c: number | null;
+  cell: string | null;
+  operator: string | null;
+  sample: string | null;
+  method: string | null;
+  dilution_factor: number | null;
+  metadata: string;
+  warnings: string;
+  created_by: number | null;
+  created_at: string;
+}
+
+export interface DbSeriesRow {
+  id: number;
+  run_id: number;
+  lab_id: number;
+  position: number;
+  name: string;
+  source_column: string;
+  quantity: string;
+  unit: string;
+  point_count: number;
+  t_f64: Buffer;
+  y_f64: Buffer;
+  skipped_lines: string;
+  processing: string;
+  t_min: number | null;
+  t_max: number | null;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
     users: DbUserRow;
     memberships: DbMembershipRow;
     audit_events: DbAuditEventRow;
+    raw_files: DbRawFileRow;
+    runs: DbRunRow;
+    series: DbSeriesRow;
   }
 }

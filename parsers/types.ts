@@ -36,10 +36,15 @@ export class ParseError extends Error {
   }
 }
 
+export interface ParseOptions {
+  /** The header of the column that holds time, where the parser's own choice is wrong. */
+  timeColumn?: string;
+}
+
 export interface ExportParser {
   name: string;
   /** 0 (cannot be this format) to 1 (certainly this format). */
   sniff(bytes: Uint8Array, fileName: string): number;
   /** Refused input comes back as a ParseError (with a line where there is one), never half a result. */
-  parse(bytes: Uint8Array, fileName: string): ParsedExport | ParseError;
+  parse(bytes: Uint8Array, fileName: string, options?: ParseOptions): ParsedExport | ParseError;
 }

@@ -2,7 +2,9 @@
 // Add each new file from `npm run db:make-migration` here, in order (a test checks the list matches the folder).
 import type { Knex } from "knex";
 import * as foundation from "./20261202030000_foundation";
+import * as runs from "./20261202040000_runs";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
+  { name: "20261202040000_runs", ...runs },
 ];

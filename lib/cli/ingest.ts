@@ -1,6 +1,36 @@
-// `cli ingest`: not built yet (the ingest issue adds lib/ingest and the storage of runs).
+// `cli ingest FILE [--lab SLUG] [--json]`: stores an export in DATABASE_FILE through the same ingest path and single
+// transaction as the web upload (for scripts and instrument PCs).
+import fs from "node:fs";
+import path from "node:path";
+import { parseArgs } from "node:util";
+import { openDb } from "@/db";
+import { DEFAULT_DATABASE_FILE } from "@/db/config";
+import { migrateToLatest } from "@/db/migrate";
+import { resolveLabForCli } from "@/lib/admin/labs";
+import { AppError } from "@/lib/errors";
+import { ingestExport } from "@/lib/ingest";
 import { CliError } from "./main";
 
-export async function ingestCommand(_argv: string[]): Promise<never> {
-  throw new CliError("the verb \"ingest\" is not built yet: storing runs arrives with the ingest work (lib/ingest).", 2);
+export async function ingestCommand(argv: string[]): Promise<unknown> {
+  const { values, positionals } = parseArgs({ args: argv, allowPositionals: true, options: { lab: { type: "string" }, json: { type: "boolean" } } });
+  const file = positionals[0];
+  if (!file) throw new CliError("no FILE given.", 2);
+  let bytes: Uint8Array;
+  try {
+    bytes = new Uint8Array(fs.readFileSync(file));
+  } catch {
+    throw new CliError(`${file}: no such file, or it cannot be read.`);
+  }
+  const db = openDb(process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE);
+  try {
+    await migrateToLatest(db);
+    const lab = await resolveLabForCli(db, values.lab);
+    const r = await ingestExport(db, { labId: lab.id, userId: null, actorLabel: `cli (${process.env.USER ?? "unknown user"})`, bytes, fileName: path.basename(file) });
+    return { run_id: r.run_id, raw_file_sha256: r.raw_file_sha256, existing: r.existing, lab: lab.slug, series: r.series };
+  } catch (e) {
+    if (e instanceof AppError) throw new CliError(e.message);
+    throw e;
+  } finally {
+    await db.destroy();
+  }
 }

@@ -12,9 +12,9 @@ export const delimitedParser: ExportParser = {
     const base = ["csv", "tsv", "txt", "dat", "asc", "prn"].includes(ext) ? 0.6 : 0.3;
     return /[,;\t]/.test(head) || /\d\s+\d/.test(head) ? base + 0.2 : base;
   },
-  parse(bytes) {
+  parse(bytes, _fileName, options) {
     try {
-      return parseDelimitedText(bytes);
+      return parseDelimitedText(bytes, options);
     } catch (e) {
       if (e instanceof ParseError) return e;
       throw e;

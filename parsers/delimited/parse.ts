@@ -4,7 +4,7 @@ import Papa from "papaparse";
 import { percentTToAbsorbance, timeUnitFactor, type Quantity } from "@/lib/units";
 import { readMetadata } from "../metadata";
 import { decodeText, readNumber, splitLines } from "../text";
-import { ParseError, type ParsedExport, type ParsedSeries } from "../types";
+import { ParseError, type ParsedExport, type ParsedSeries, type ParseOptions } from "../types";
 import { classifyTime, timeReader } from "./time";
 
 export type Delimiter = "," | ";" | "\t" | "whitespace";
@@ -187,11 +187,15 @@ export function locateTable(bytes: Uint8Array): LocatedTable {
   return { warnings, decimalComma, headerIdx, headerCells, first, rows, meta };
 }
 
-export function parseDelimitedText(bytes: Uint8Array): ParsedExport {
+export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}): ParsedExport {
   const { warnings, decimalComma, headerIdx, headerCells, first, rows, meta } = locateTable(bytes);
   // Columns: time (by header name, else the first), the rest channels.
   let timeCol = headerCells.findIndex((h) => TIME_HEADER.test(h.trim()));
   if (timeCol < 0) timeCol = 0;
+  if (options.timeColumn !== undefined) {
+    timeCol = headerCells.indexOf(options.timeColumn);
+    if (timeCol < 0) throw new ParseError(`there is no column "${options.timeColumn}" to read time from (columns: ${headerCells.map((h) => `"${h}"`).join(", ")})`, (headerIdx >= 0 ? headerIdx : first) + 1);
+  }
   const timeHeader = headerCells[timeCol]!;
   const tUnit = headerUnit(timeHeader);
   let unitFactor = tUnit ? timeUnitFactor(tUnit) : null;

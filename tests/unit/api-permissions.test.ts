@@ -8,6 +8,7 @@ import { setDb } from "@/db";
 import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { signInWithPassword } from "@/lib/auth/sign-in";
+import { ingestExport } from "@/lib/ingest";
 import { can, ROLES, type Permission, type Role } from "@/lib/permissions";
 import { freshDb } from "../helpers/db";
 
@@ -16,8 +17,15 @@ vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.curre
 
 type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 interface RouteCase {
-  methods: Partial<Record<Method, { permission: Permission; url: string; params?: Record<string, string>; body?: unknown }>>;
+  methods: Partial<Record<Method, { permission: Permission; url: string; params?: Record<string, string>; form?: () => FormData; ok?: number[] }>>;
 }
+
+const CV_FILE = "fixtures/published/crystal-violet-590nm.csv";
+const cvForm = () => {
+  const f = new FormData();
+  f.set("file", new File([fs.readFileSync(CV_FILE)], "crystal-violet-590nm.csv"));
+  return f;
+};
 
 // Public by design: next-auth's own endpoints (sign-in, CSRF, session) must be reachable signed out.
 const PUBLIC = new Set(["app/api/auth/[...nextauth]/route.ts"]);
@@ -26,6 +34,19 @@ const ROUTES: Record<string, RouteCase> = {
   "app/api/me/route.ts": { methods: { GET: { permission: "self:read", url: "/api/me" } } },
   "app/api/admin/members/route.ts": { methods: { GET: { permission: "user:manage", url: "/api/admin/members" } } },
   "app/api/audit/route.ts": { methods: { GET: { permission: "audit:read", url: "/api/audit?limit=5" } } },
+  "app/api/uploads/route.ts": { methods: { POST: { permission: "run:upload", url: "/api/uploads", form: cvForm } } },
+  "app/api/runs/route.ts": {
+    methods: {
+      GET: { permission: "run:read", url: "/api/runs?pageSize=5" },
+      // The first permitted role stores the file (201); the next is answered with the existing run (200).
+      POST: { permission: "run:upload", url: "/api/runs", form: cvForm, ok: [200, 201] },
+    },
+  },
+  "app/api/runs/[id]/route.ts": { methods: { GET: { permission: "run:read", url: "/api/runs/1", params: { id: "1" } } } },
+  "app/api/runs/[id]/series/[sid]/route.ts": {
+    methods: { GET: { permission: "run:read", url: "/api/runs/1/series/1?maxPoints=50", params: { id: "1", sid: "1" } } },
+  },
+  "app/api/raw-files/[id]/route.ts": { methods: { GET: { permission: "run:read", url: "/api/raw-files/1", params: { id: "1" } } } },
 };
 
 function routeFiles(dir = "app/api"): string[] {
@@ -43,6 +64,9 @@ beforeAll(async () => {
   setDb(db);
   await seedDemoWhenEmpty(db);
   for (const u of DEMO_USERS) users.set(u.role, await signInWithPassword(db, u.email, u.password));
+  // A stored run for the read routes (a different file from the one the POST cases upload).
+  const analyst = users.get("analyst")!;
+  await ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes: new Uint8Array(fs.readFileSync("parsers/delimited/fixtures/cv-tab-mmss.txt")), fileName: "cv-tab-mmss.txt" });
 });
 afterAll(() => db.destroy());
 
@@ -60,19 +84,18 @@ describe("route permission matrix", () => {
   for (const [file, rc] of Object.entries(ROUTES)) {
     for (const [method, spec] of Object.entries(rc.methods)) {
       for (const who of [null, ...ROLES] as Array<Role | null>) {
-        const expected = who === null ? 401 : can({ userId: 1, role: who }, spec.permission) ? 200 : 403;
-        it(`${method} ${spec.url} as ${who ?? "signed out"} -> ${expected}`, async () => {
+        const allowed = who !== null && can({ userId: 1, role: who }, spec.permission);
+        const expected = who === null ? 401 : allowed ? 200 : 403;
+        it(`${method} ${spec.url} as ${who ?? "signed out"} -> ${allowed ? (spec.ok ?? [200]).join("/") : expected}`, async () => {
           session.current = who ? users.get(who)! : null;
           const mod = (await import(path.resolve(file))) as Record<string, (r: Request, c: unknown) => Promise<Response>>;
-          const req = new Request(`http://halflight.test${spec.url}`, {
-            method,
-            body: spec.body === undefined ? undefined : JSON.stringify(spec.body),
-            headers: { "content-type": "application/json" },
-          });
+          const req = new Request(`http://halflight.test${spec.url}`, { method, body: spec.form ? spec.form() : undefined });
           const res = await mod[method]!(req, { params: Promise.resolve(spec.params ?? {}) });
-          expect(res.status).toBe(expected);
+          if (allowed) expect(spec.ok ?? [200]).toContain(res.status);
+          else expect(res.status).toBe(expected);
+          if (res.headers.get("content-type")?.includes("octet-stream")) return;
           const body = (await res.json()) as { error?: { code: string; message: string } };
-          if (expected !== 200) {
+          if (!allowed) {
             expect(body.error?.code).toBe(expected === 401 ? "unauthorized" : "forbidden");
             expect(body.error?.message).toMatch(/\w/);
           } else {

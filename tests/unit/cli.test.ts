@@ -127,9 +127,22 @@ describe("cli verbs in-process", () => {
     expect(none.err).toMatch(/no temperature column: put °C or K in its header/);
   });
 
-  it("ingest is marked as not built yet", async () => {
-    const r = await run("ingest", CV, "--json");
-    expect(r.code).toBe(2);
-    expect(r.err).toMatch(/not built yet/);
+  it("ingest stores a file in DATABASE_FILE once, and refuses bad input leaving the database unchanged", () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-ingest-"));
+    const env = { ...process.env, DATABASE_FILE: path.join(dir, "cli.sqlite") };
+    const run = (...a: string[]) => spawnSync("npm", ["run", "--silent", "cli", "--", ...a], { encoding: "utf8", env });
+    const first = run("ingest", CV, "--json");
+    expect(first.status, first.stderr).toBe(0);
+    const j = JSON.parse(first.stdout);
+    expect(j).toMatchObject({ run_id: 1, lab: "default", existing: false, series: [{ name: "A (590 nm)", points: 9 }] });
+    expect(j.raw_file_sha256).toMatch(/^[0-9a-f]{64}$/);
+    const again = JSON.parse(run("ingest", CV, "--json").stdout);
+    expect(again).toMatchObject({ run_id: 1, existing: true });
+    const bad = run("ingest", `${FIX}/bad-backwards.csv`, "--json");
+    expect(bad.status).not.toBe(0);
+    expect(bad.stderr).toMatch(/bad-backwards\.csv: line 5: the time goes backwards/);
+    const other = JSON.parse(run("ingest", `${FIX}/cv-iso.csv`, "--json").stdout);
+    expect(other.run_id).toBe(2); // the refused file wrote nothing, not even a run number
+    expect(run("ingest", CV, "--lab", "nowhere").stderr).toMatch(/no lab with the slug "nowhere"/);
   });
 });

@@ -1,0 +1,10 @@
+import { withUser } from "@/lib/http/with-user";
+import { seriesForDisplay } from "@/lib/runs";
+import { idParam } from "@/lib/schemas/common";
+import { seriesPointsQuerySchema } from "@/lib/schemas/runs";
+
+// Chart-ready points: decimated (LTTB) to maxPoints, or every point with ?full=1.
+export const GET = withUser<{ id: string; sid: string }>({ permission: "run:read" }, async ({ req, params, db, user }) => {
+  const q = seriesPointsQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
+  return seriesForDisplay(db, user.labId, idParam.parse(params.id), idParam.parse(params.sid), { maxPoints: q.maxPoints, full: Boolean(q.full) });
+});

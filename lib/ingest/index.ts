@@ -1,0 +1,227 @@
+// Ingest: the raw file's SHA-256, the parser's choice, the column mapping, and the one transaction that stores raw file,
+// run, series and audit event together (or nothing at all).
+import { createHash } from "node:crypto";
+import type { Knex } from "knex";
+import { findRawFileBySha, findRunsOfRawFile, insertRawFile, insertRun, insertSeries, listSeriesOfRun, packF64 } from "@/db/queries/runs";
+import { recordAudit } from "@/lib/audit";
+import { AppError } from "@/lib/errors";
+import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
+import { parseExport, ParseError, rankParsers, type ParsedExport, type ParsedSeries } from "@/parsers";
+
+/** Limits stated on the upload page and enforced here. */
+export const INGEST_LIMITS = { maxBytes: 50 * 1024 * 1024, maxPoints: 5_000_000, maxChannels: 96 } as const;
+
+export function sha256Hex(bytes: Uint8Array): string {
+  return createHash("sha256").update(bytes).digest("hex");
+}
+
+function refuse(fileName: string, e: ParseError): AppError {
+  return new AppError({ code: "unprocessable", message: `${fileName}: ${e.message}`, line: e.line });
+}
+
+export function checkSize(fileName: string, size: number): void {
+  if (size > INGEST_LIMITS.maxBytes)
+    throw new AppError({ code: "payload_too_large", message: `${fileName} is ${(size / 1048576).toFixed(1)} MB; the limit is ${INGEST_LIMITS.maxBytes / 1048576} MB per file.` });
+  if (size === 0) throw new AppError({ code: "unprocessable", message: `${fileName}: The file is empty.` });
+}
+
+/** Parses and checks an export; refused input becomes a 422 naming the file and the line. */
+export function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): ParsedExport {
+  checkSize(fileName, bytes.length);
+  const parsed = parseExport(bytes, fileName, mapping.parser, { timeColumn: mapping.timeColumn });
+  if (parsed instanceof ParseError) throw refuse(fileName, parsed);
+  if (parsed.series.length > INGEST_LIMITS.maxChannels)
+    throw new AppError({ code: "unprocessable", message: `${fileName} has ${parsed.series.length} channels; the limit is ${INGEST_LIMITS.maxChannels}.` });
+  const points = parsed.series.reduce((s, x) => s + x.t.length, 0);
+  if (points > INGEST_LIMITS.maxPoints)
+    throw new AppError({ code: "unprocessable", message: `${fileName} has ${points.toLocaleString("en")} readings; the limit is ${INGEST_LIMITS.maxPoints.toLocaleString("en")}.` });
+  return parsed;
+}
+
+const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
+
+export async function findExistingRun(db: Knex | Knex.Transaction, labId: number, sha256: string) {
+  const raw = await findRawFileBySha(db, labId, sha256);
+  if (!raw) return null;
+  const runs = await findRunsOfRawFile(db, labId, raw.id);
+  return runs[0] ?? null;
+}
+
+/** What the upload page shows before anything is stored. */
+export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<UploadPreview> {
+  const parsed = readExport(bytes, fileName, mapping);
+  const sha256 = sha256Hex(bytes);
+  const existing = await findExistingRun(db, labId, sha256);
+  const text = new TextDecoder("utf-8", { fatal: false }).decode(bytes.subarray(0, 64 * 1024)).replace(/^\uFEFF/, "");
+  const head = text.split(/\r\n|\n|\r/).slice(0, 25).map((t, i) => ({ line: i + 1, text: t.slice(0, 300) }));
+  const PREVIEW = 400;
+  return {
+    sha256,
+    name: fileName,
+    size: bytes.length,
+    parser: parsed.parser,
+    parsers: rankParsers(bytes, fileName).map((r) => ({ name: r.parser.name, confidence: r.confidence })),
+    metadata: parsed.metadata,
+    warnings: parsed.warnings,
+    columns: parsed.columns ?? [],
+    series: parsed.series.map((s) => {
+      const stride = Math.max(1, Math.ceil(s.t.length / PREVIEW));
+      return {
+        name: s.name,
+        quantity: s.quantity,
+        unit: s.unit,
+        points: s.t.length,
+        skipped_lines: s.skipped_lines,
+        t: s.t.filter((_, i) => i % stride === 0),
+        y: s.y.filter((_, i) => i % stride === 0),
+        wavelength_nm: num(s.metadata?.wavelength_nm),
+      };
+    }),
+    head,
+    existing: existing ? { run_id: existing.id, name: existing.name, created_at: existing.created_at } : null,
+    suggested: {
+      name: fileName.replace(/\.[^.]+$/, ""),
+      wavelength_nm: num(parsed.metadata.wavelength_nm),
+      path_length_cm: num(parsed.metadata.path_length_cm),
+      temperature_c: num(parsed.metadata.temperature_c),
+    },
+  };
+}
+
+interface StoredSeries {
+  source: string;
+  name: string;
+  series: ParsedSeries;
+  processing: Record<string, unknown>;
+  t: number[];
+  y: number[];
+}
+
+/** Applies the mapping: chosen channels, their names, and the blank subtracted at equal times. */
+export function applyMapping(parsed: ParsedExport, mapping: RunMapping, fileName: string): StoredSeries[] {
+  const byName = new Map(parsed.series.map((s) => [s.name, s]));
+  for (const c of mapping.channels ?? [])
+    if (!byName.has(c.source)) throw new AppError({ code: "unprocessable", message: `${fileName}: the mapping names a channel "${c.source}" that the file does not have.` });
+  let blank: ParsedSeries | undefined;
+  if (mapping.blank) {
+    blank = byName.get(mapping.blank);
+    if (!blank) throw new AppError({ code: "unprocessable", message: `${fileName}: the blank channel "${mapping.blank}" is not in the file.` });
+  }
+  const blankAt = new Map<number, number>();
+  blank?.t.forEach((t, i) => {
+    if (!blankAt.has(t)) blankAt.set(t, blank!.y[i]!);
+  });
+  const chosen = parsed.series.filter((s) => s !== blank && (mapping.channels?.find((c) => c.source === s.name)?.include ?? true));
+  if (chosen.length === 0) throw new AppError({ code: "unprocessable", message: `${fileName}: no channel is left to store (all were left out${blank ? " or used as the blank" : ""}).` });
+  return chosen.map((s) => {
+    const name = mapping.channels?.find((c) => c.source === s.name)?.name ?? s.name;
+    const processing: Record<string, unknown> = {};
+    if (s.quantity === "transmittance-converted absorbance") processing.converted = "A = 2 − log10(%T)";
+    if (!blank) return { source: s.name, name, series: s, processing, t: s.t, y: s.y };
+    const t: number[] = [],
+      y: number[] = [];
+    let unmatched = 0;
+    s.t.forEach((ti, i) => {
+      const b = blankAt.get(ti);
+      if (b === undefined) unmatched++;
+      else {
+        t.push(ti);
+        y.push(s.y[i]! - b);
+      }
+    });
+    processing.blank_subtracted = blank.name;
+    if (unmatched) processing.blank_unmatched_points = unmatched;
+    return { source: s.name, name, series: s, processing, t, y };
+  });
+}
+
+export interface IngestResult {
+  run_id: number;
+  raw_file_sha256: string;
+  existing: boolean;
+  series: Array<{ id: number; name: string; points: number }>;
+}
+
+/**
+ * Stores an export: raw bytes (once per lab and SHA-256), run, series and the audit event, in one transaction.
+ * The same file again answers with the existing run and writes nothing.
+ */
+export async function ingestExport(
+  db: Knex,
+  input: { labId: number; userId: number | null; actorLabel?: string; bytes: Uint8Array; fileName: string; mapping?: RunMapping; now?: Date },
+): Promise<IngestResult> {
+  const mapping: RunMapping = input.mapping ?? { run: {} };
+  const sha256 = sha256Hex(input.bytes);
+  const existing = await findExistingRun(db, input.labId, sha256);
+  if (existing) {
+    const series = await listSeriesOfRun(db, input.labId, existing.id);
+    return { run_id: existing.id, raw_file_sha256: sha256, existing: true, series: series.map((s) => ({ id: s.id, name: s.name, points: s.point_count })) };
+  }
+  const parsed = readExport(input.bytes, input.fileName, mapping);
+  const stored = applyMapping(parsed, mapping, input.fileName);
+  const at = (input.now ?? new Date()).toISOString();
+  const r = mapping.run ?? {};
+  const pick = <T>(v: T | null | undefined, fallback: T | null): T | null => (v === undefined ? fallback : v);
+  return db.transaction(async (trx) => {
+    const rawFileId = await insertRawFile(trx, {
+      lab_id: input.labId,
+      sha256,
+      name: input.fileName,
+      size: input.bytes.length,
+      bytes: Buffer.from(input.bytes),
+      uploaded_by: input.userId,
+      uploaded_at: at,
+    });
+    const runRow = {
+      lab_id: input.labId,
+      raw_file_id: rawFileId,
+      name: r.name ?? input.fileName.replace(/\.[^.]+$/, ""),
+      parser: parsed.parser,
+      study: pick(r.study, null),
+      wavelength_nm: pick(r.wavelength_nm, num(parsed.metadata.wavelength_nm)),
+      path_length_cm: pick(r.path_length_cm, num(parsed.metadata.path_length_cm)),
+      temperature_c: pick(r.temperature_c, num(parsed.metadata.temperature_c)),
+      cell: pick(r.cell, null),
+      operator: pick(r.operator, typeof parsed.metadata.operator === "string" ? parsed.metadata.operator : null),
+      sample: pick(r.sample, null),
+      method: pick(r.method, null),
+      dilution_factor: pick(mapping.dilutionFactor, null),
+      metadata: JSON.stringify(parsed.metadata),
+      warnings: JSON.stringify(parsed.warnings),
+      created_by: input.userId,
+      created_at: at,
+    };
+    const runId = await insertRun(trx, runRow);
+    const series: IngestResult["series"] = [];
+    for (const [position, s] of stored.entries()) {
+      const id = await insertSeries(trx, {
+        run_id: runId,
+        lab_id: input.labId,
+        position,
+        name: s.name,
+        source_column: s.source,
+        quantity: s.series.quantity,
+        unit: s.series.unit,
+        point_count: s.t.length,
+        t_f64: packF64(s.t),
+        y_f64: packF64(s.y),
+        skipped_lines: JSON.stringify(s.series.skipped_lines),
+        processing: JSON.stringify({ ...s.processing, ...(s.series.metadata ? { channel_metadata: s.series.metadata } : {}) }),
+        t_min: s.t.length ? s.t[0]! : null,
+        t_max: s.t.length ? s.t[s.t.length - 1]! : null,
+      });
+      series.push({ id, name: s.name, points: s.t.length });
+    }
+    await recordAudit(trx, {
+      labId: input.labId,
+      actorUserId: input.userId,
+      actorLabel: input.actorLabel ?? null,
+      action: "run.ingested",
+      objectType: "run",
+      objectId: runId,
+      objectVersion: 1,
+      newValues: { raw_file: { name: input.fileName, sha256, size: input.bytes.length }, parser: parsed.parser, series: series.map(({ name, points }) => ({ name, points })), mapping },
+    });
+    return { run_id: runId, raw_file_sha256: sha256, existing: false, series };
+  });
+}

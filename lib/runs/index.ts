@@ -1,0 +1,131 @@
+// Reading stored runs: the paged list, one run with its series, a series' points (decimated for display with the
+// `downsample` package's LTTB; full data on request) and the original file.
+import type { Knex } from "knex";
+import { LTTB } from "downsample";
+import { getRawFile, getRun, getSeriesWithPoints, listRuns, listSeriesOfRun, unpackF64 } from "@/db/queries/runs";
+import { AppError } from "@/lib/errors";
+import type { RunDetail, RunListQuery, RunSummary, SeriesSummary } from "@/lib/schemas/runs";
+
+/** Points sent to a plot unless more are asked for; fits always read every point. */
+export const DISPLAY_POINTS = 2000;
+
+type RunRowLike = {
+  id: number;
+  name: string;
+  study: string | null;
+  parser: string;
+  wavelength_nm: number | null;
+  path_length_cm: number | null;
+  temperature_c: number | null;
+  cell: string | null;
+  operator: string | null;
+  sample: string | null;
+  method: string | null;
+  dilution_factor: number | null;
+  raw_file_id: number;
+  raw_file_name: string;
+  raw_file_sha256: string;
+  created_at: string;
+  created_by_name: string | null;
+};
+
+function summary(r: RunRowLike, seriesCount: number, size?: number): RunSummary {
+  return {
+    id: r.id,
+    name: r.name,
+    study: r.study,
+    parser: r.parser,
+    wavelength_nm: r.wavelength_nm,
+    path_length_cm: r.path_length_cm,
+    temperature_c: r.temperature_c,
+    cell: r.cell,
+    operator: r.operator,
+    sample: r.sample,
+    method: r.method,
+    dilution_factor: r.dilution_factor,
+    series_count: seriesCount,
+    raw_file: { id: r.raw_file_id, name: r.raw_file_name, sha256: r.raw_file_sha256, ...(size !== undefined ? { size } : {}) },
+    created_at: r.created_at,
+    created_by: r.created_by_name,
+  };
+}
+
+export async function listLabRuns(db: Knex, labId: number, q: RunListQuery) {
+  const { rows, total } = await listRuns(db, {
+    labId,
+    study: q.study,
+    from: q.from,
+    to: q.to,
+    wavelengthMin: q.wavelengthMin,
+    wavelengthMax: q.wavelengthMax,
+    temperatureMin: q.temperatureMin,
+    temperatureMax: q.temperatureMax,
+    q: q.q,
+    sort: q.sort,
+    dir: q.dir,
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  });
+  return { runs: rows.map((r) => summary(r, Number(r.series_count))), total, page: q.page, pageSize: q.pageSize };
+}
+
+export async function getRunDetail(db: Knex, labId: number, runId: number): Promise<RunDetail> {
+  const r = await getRun(db, labId, runId);
+  if (!r) throw new AppError({ code: "not_found", message: `There is no run ${runId} in this lab.` });
+  const series = await listSeriesOfRun(db, labId, runId);
+  return {
+    ...summary(r, series.length, r.raw_file_size),
+    metadata: JSON.parse(r.metadata) as Record<string, unknown>,
+    warnings: JSON.parse(r.warnings) as string[],
+    series: series.map(
+      (s): SeriesSummary => ({
+        id: s.id,
+        name: s.name,
+        source_column: s.source_column,
+        quantity: s.quantity,
+        unit: s.unit,
+        points: s.point_count,
+        skipped_lines: JSON.parse(s.skipped_lines) as number[],
+        processing: JSON.parse(s.processing) as Record<string, unknown>,
+        t_range: s.t_min === null || s.t_max === null ? null : [s.t_min, s.t_max],
+      }),
+    ),
+  };
+}
+
+/** Every point of a series, as stored (for fits). */
+export async function readSeries(db: Knex, labId: number, runId: number, seriesId: number) {
+  const s = await getSeriesWithPoints(db, labId, runId, seriesId);
+  if (!s) throw new AppError({ code: "not_found", message: `There is no series ${seriesId} in run ${runId}.` });
+  return { row: s, t: unpackF64(s.t_f64), y: unpackF64(s.y_f64) };
+}
+
+export async function seriesForDisplay(db: Knex, labId: number, runId: number, seriesId: number, opts: { maxPoints?: number; full?: boolean }) {
+  const { row, t, y } = await readSeries(db, labId, runId, seriesId);
+  const limit = opts.full ? Infinity : (opts.maxPoints ?? DISPLAY_POINTS);
+  let tx: number[], yx: number[];
+  if (t.length <= limit) {
+    tx = Array.from(t);
+    yx = Array.from(y);
+  } else {
+    const pts = LTTB(Array.from(t, (ti, i) => [ti, y[i]!] as [number, number]), limit) as Array<[number, number]>;
+    tx = pts.map((p) => p[0]);
+    yx = pts.map((p) => p[1]);
+  }
+  return {
+    id: row.id,
+    name: row.name,
+    quantity: row.quantity,
+    unit: row.unit,
+    points: row.point_count,
+    decimated: tx.length < row.point_count ? { method: "LTTB", shown: tx.length } : null,
+    t: tx,
+    y: yx,
+  };
+}
+
+export async function rawFileDownload(db: Knex, labId: number, id: number) {
+  const f = await getRawFile(db, labId, id);
+  if (!f) throw new AppError({ code: "not_found", message: `There is no raw file ${id} in this lab.` });
+  return f;
+}

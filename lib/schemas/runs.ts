@@ -1,0 +1,108 @@
+// One schema per resource: runs, their mapping at upload, the list query.
+import { z } from "zod";
+
+const optionalNumber = z.number().finite().nullable().optional();
+const optionalText = z.string().trim().max(200).nullable().optional();
+
+export const channelMappingSchema = z.object({
+  /** The series name as the parser gave it (its column header). */
+  source: z.string(),
+  include: z.boolean().default(true),
+  name: z.string().trim().min(1).max(200).optional(),
+});
+
+export const runMappingSchema = z.object({
+  parser: z.string().optional(),
+  timeColumn: z.string().optional(),
+  channels: z.array(channelMappingSchema).optional(),
+  /** A channel holding the blank, subtracted from the others at the same times. */
+  blank: z.string().nullable().optional(),
+  dilutionFactor: z.number().positive().finite().nullable().optional(),
+  run: z
+    .object({
+      name: z.string().trim().min(1).max(255).optional(),
+      study: optionalText,
+      wavelength_nm: optionalNumber,
+      path_length_cm: z.number().positive().finite().nullable().optional(),
+      temperature_c: optionalNumber,
+      cell: optionalText,
+      operator: optionalText,
+      sample: optionalText,
+      method: optionalText,
+    })
+    .default({}),
+});
+export type RunMapping = z.infer<typeof runMappingSchema>;
+
+export const runListQuerySchema = z.object({
+  study: z.string().optional(),
+  from: z.string().optional(),
+  to: z.string().optional(),
+  wavelengthMin: z.coerce.number().optional(),
+  wavelengthMax: z.coerce.number().optional(),
+  temperatureMin: z.coerce.number().optional(),
+  temperatureMax: z.coerce.number().optional(),
+  q: z.string().max(100).optional(),
+  sort: z.enum(["created_at", "name", "wavelength_nm", "temperature_c", "study"]).default("created_at"),
+  dir: z.enum(["asc", "desc"]).default("desc"),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+});
+export type RunListQuery = z.infer<typeof runListQuerySchema>;
+
+export const seriesPointsQuerySchema = z.object({
+  maxPoints: z.coerce.number().int().min(10).max(2_000_000).optional(),
+  full: z.enum(["1", "true"]).optional(),
+});
+
+export interface RunSummary {
+  id: number;
+  name: string;
+  study: string | null;
+  parser: string;
+  wavelength_nm: number | null;
+  path_length_cm: number | null;
+  temperature_c: number | null;
+  cell: string | null;
+  operator: string | null;
+  sample: string | null;
+  method: string | null;
+  dilution_factor: number | null;
+  series_count: number;
+  raw_file: { id: number; name: string; sha256: string; size?: number };
+  created_at: string;
+  created_by: string | null;
+}
+
+export interface SeriesSummary {
+  id: number;
+  name: string;
+  source_column: string;
+  quantity: string;
+  unit: string;
+  points: number;
+  skipped_lines: number[];
+  processing: Record<string, unknown>;
+  t_range: [number, number] | null;
+}
+
+export interface RunDetail extends RunSummary {
+  metadata: Record<string, unknown>;
+  warnings: string[];
+  series: SeriesSummary[];
+}
+
+export interface UploadPreview {
+  sha256: string;
+  name: string;
+  size: number;
+  parser: string;
+  parsers: Array<{ name: string; confidence: number }>;
+  metadata: Record<string, string | number>;
+  warnings: string[];
+  columns: Array<{ index: number; header: string; role: "time" | "channel"; unit: string | null }>;
+  series: Array<{ name: string; quantity: string; unit: string; points: number; skipped_lines: number[]; t: number[]; y: number[]; wavelength_nm: number | null }>;
+  head: Array<{ line: number; text: string }>;
+  existing: { run_id: number; name: string; created_at: string } | null;
+  suggested: { name: string; wavelength_nm: number | null; path_length_cm: number | null; temperature_c: number | null };
+}
