@@ -12,7 +12,7 @@ async function main() {
     await migrateToLatest(db);
     console.log(`Database ready: ${file}`);
     if (process.argv.includes("--no-seed")) return;
-    if (await seedDemoWhenEmpty(db)) {
+    if (await seedDemoWhenEmpty(db, new Date(), { runs: true })) {
       console.log("Demo lab seeded. Demo accounts (demo passwords, never for real data):");
       for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(17)} ${u.email.padEnd(32)} ${u.password}`);
     }

@@ -2,7 +2,11 @@
 // "corvane blue", a fictional dye, at 590 nm and four temperatures. This seed creates the lab and one person per role;
 // the ingest work adds its runs as real export files.
 import type { Knex } from "knex";
+import fs from "node:fs";
+import path from "node:path";
 import { insertLab, countLabs } from "@/db/queries/labs";
+import { ingestExport } from "@/lib/ingest";
+import { demoFiles } from "./demo-files";
 import { insertMembership, insertUser } from "@/db/queries/users";
 import { recordAudit } from "@/lib/audit";
 import { hashPassword } from "@/lib/auth/password";
@@ -18,8 +22,9 @@ export const DEMO_USERS: ReadonlyArray<{ email: string; name: string; role: Role
   { email: "rafe.okonkwo@larkspur.example", name: "Rafe Okonkwo", role: "reviewer", password: "demo-review-pass" },
 ];
 
-/** Seeds the demo lab when the database has no lab yet; returns whether it did. */
-export async function seedDemoWhenEmpty(db: Knex, now: Date = new Date()): Promise<boolean> {
+/** Seeds the demo lab when the database has no lab yet; returns whether it did. With `runs`, the demo's export files
+ * (written to fixtures/demo when missing) are ingested through the real parsers, as the analyst. */
+export async function seedDemoWhenEmpty(db: Knex, now: Date = new Date(), opts: { runs?: boolean } = {}): Promise<boolean> {
   if ((await countLabs(db)) > 0) return false;
   const hashes = await Promise.all(DEMO_USERS.map((u) => hashPassword(u.password)));
   await db.transaction(async (trx) => {
@@ -40,5 +45,25 @@ export async function seedDemoWhenEmpty(db: Knex, now: Date = new Date()): Promi
       reason: "demo scenario",
     }, now);
   });
+  if (opts.runs) await seedDemoRuns(db);
   return true;
+}
+
+export const DEMO_FILES_DIR = path.resolve("fixtures/demo");
+
+async function seedDemoRuns(db: Knex): Promise<void> {
+  const lab = await db("labs").where({ slug: DEMO_LAB.slug }).first();
+  const analyst = await db("users").where({ email: DEMO_USERS.find((u) => u.role === "analyst")!.email }).first();
+  fs.mkdirSync(DEMO_FILES_DIR, { recursive: true });
+  for (const f of demoFiles()) {
+    const file = path.join(DEMO_FILES_DIR, f.name);
+    if (!fs.existsSync(file)) fs.writeFileSync(file, f.text);
+    await ingestExport(db, {
+      labId: lab!.id,
+      userId: analyst!.id,
+      bytes: new Uint8Array(fs.readFileSync(file)),
+      fileName: f.name,
+      mapping: { run: { study: "Corvane blue stability (demo)", sample: "corvane blue DEMO-7" } },
+    });
+  }
 }

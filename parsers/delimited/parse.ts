@@ -35,7 +35,15 @@ export function sniffDialect(lines: readonly string[]): Dialect | null {
     for (const l of sample) {
       if (!l.trim()) continue;
       const cells = splitCells(l, d);
-      if (looksLikeData(cells)) score += 1 + Math.min(cells.length, 16) / 100;
+      if (!looksLikeData(cells)) continue;
+      // Reward splits whose cells read as numbers (with a decimal comma where the delimiter allows one): "0,00;1,02"
+      // split on commas starts with a number too, but leaves "00;1" behind.
+      let numeric = 0;
+      for (const c of cells) {
+        const v = c.trim().replace(/^"|"$/g, "");
+        if (classifyTime(v) !== null || (d !== "," && /^[+-]?\d+,\d+$/.test(v))) numeric++;
+      }
+      score += numeric / cells.length + Math.min(cells.length, 16) / 1000;
     }
     if (score > 0 && (!best || score > best.score + 1e-9)) best = { d, score };
   }

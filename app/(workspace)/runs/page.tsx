@@ -1,13 +1,28 @@
 import type { Metadata } from "next";
-import { AreaPlaceholder } from "@/components/shell/area-placeholder";
+import Link from "next/link";
+import { RunsTable } from "@/components/runs/runs-table";
+import { PageHeader } from "@/components/shell/page-header";
 import { requirePageUser } from "@/lib/auth/page";
-import { AREAS } from "@/lib/navigation";
+import { can } from "@/lib/permissions";
 
 export const metadata: Metadata = { title: "Runs" };
 
-const area = AREAS.find((a) => a.href === "/runs")!;
-
-export default async function Page() {
-  await requirePageUser("run:read", "/runs");
-  return <AreaPlaceholder title={area.label} purpose={area.purpose} missing="uploading exports and the runs list." />;
+export default async function RunsPage() {
+  const user = await requirePageUser("run:read", "/runs");
+  return (
+    <>
+      <PageHeader
+        title="Runs"
+        lede="Each uploaded export, kept byte for byte with its SHA-256, and the channels read from it."
+        actions={
+          can(user, "run:upload") ? (
+            <Link href="/runs/new" className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-4 font-semibold text-white hover:bg-quartz-600">
+              Upload exports
+            </Link>
+          ) : null
+        }
+      />
+      <RunsTable canUpload={can(user, "run:upload")} />
+    </>
+  );
 }

@@ -1,0 +1,39 @@
+"use client";
+// The one plotting component: react-plotly.js over plotly.js-dist-min (through the factory), loaded in the browser only.
+import dynamic from "next/dynamic";
+import type { PlotParams } from "react-plotly.js";
+
+const Plotly = dynamic(
+  async () => {
+    const [{ default: createPlotlyComponent }, plotly] = await Promise.all([import("react-plotly.js/factory"), import("plotly.js-dist-min")]);
+    return createPlotlyComponent(plotly.default ?? plotly);
+  },
+  { ssr: false, loading: () => <div className="h-full w-full animate-pulse rounded-cell bg-paper-sunk" aria-label="Loading plot" /> },
+);
+
+const FONT = { family: "var(--font-sans), system-ui, sans-serif", size: 12, color: "#3a4457" };
+
+export function Plot({ data, layout, height = 320, label }: { data: PlotParams["data"]; layout?: PlotParams["layout"]; height?: number; label: string }) {
+  return (
+    <figure aria-label={label} className="w-full" style={{ height }}>
+      <Plotly
+        data={data}
+        layout={{
+          autosize: true,
+          height,
+          margin: { l: 56, r: 16, t: 12, b: 44 },
+          paper_bgcolor: "rgba(0,0,0,0)",
+          plot_bgcolor: "#ffffff",
+          font: FONT,
+          legend: { orientation: "h", y: -0.22 },
+          xaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.xaxis },
+          yaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.yaxis },
+          ...layout,
+        }}
+        config={{ displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d", "select2d"] }}
+        useResizeHandler
+        style={{ width: "100%", height: "100%" }}
+      />
+    </figure>
+  );
+}

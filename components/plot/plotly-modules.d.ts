@@ -1,0 +1,10 @@
+// plotly.js-dist-min and react-plotly.js/factory ship without types for these entry points.
+declare module "plotly.js-dist-min" {
+  const Plotly: unknown;
+  export default Plotly;
+}
+declare module "react-plotly.js/factory" {
+  import type { ComponentType } from "react";
+  import type { PlotParams } from "react-plotly.js";
+  export default function createPlotlyComponent(plotly: unknown): ComponentType<PlotParams>;
+}
