@@ -23,8 +23,8 @@ const config: Config = {
         fault: { 700: "#9b1c1c", 100: "#fbe0e0" },
       },
       fontFamily: {
-        sans: ["var(--font-sans)", "system-ui", "sans-serif"],
-        mono: ["var(--font-mono)", "ui-monospace", "monospace"],
+        sans: ["var(--hl-font-sans)", "system-ui", "sans-serif"],
+        mono: ["var(--hl-font-mono)", "ui-monospace", "monospace"],
       },
       fontSize: {
         // A 1.2 type scale from a 15 px body.

@@ -8,7 +8,7 @@ export const sans = localFont({
     { path: "./fonts/source-sans-3-latin-600-normal.woff2", weight: "600", style: "normal" },
     { path: "./fonts/source-sans-3-latin-700-normal.woff2", weight: "700", style: "normal" },
   ],
-  variable: "--font-sans",
+  variable: "--hl-font-sans",
   display: "swap",
 });
 
@@ -17,6 +17,6 @@ export const mono = localFont({
     { path: "./fonts/ibm-plex-mono-latin-400-normal.woff2", weight: "400", style: "normal" },
     { path: "./fonts/ibm-plex-mono-latin-500-normal.woff2", weight: "500", style: "normal" },
   ],
-  variable: "--font-mono",
+  variable: "--hl-font-mono",
   display: "swap",
 });

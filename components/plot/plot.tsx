@@ -11,7 +11,7 @@ const Plotly = dynamic(
   { ssr: false, loading: () => <div className="h-full w-full animate-pulse rounded-cell bg-paper-sunk" aria-label="Loading plot" /> },
 );
 
-const FONT = { family: "var(--font-sans), system-ui, sans-serif", size: 12, color: "#3a4457" };
+const FONT = { family: "var(--hl-font-sans), system-ui, sans-serif", size: 12, color: "#3a4457" };
 
 export function Plot({ data, layout, height = 320, label }: { data: PlotParams["data"]; layout?: PlotParams["layout"]; height?: number; label: string }) {
   return (
