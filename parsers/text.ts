@@ -57,10 +57,18 @@ export function splitLines(text: string): string[] {
  * number and does not finish as one (refused by the parsers rather than skipped).
  */
 export function readNumber(cell: string, decimalComma: boolean): number | "partial" {
-  const s = cell.trim();
+  // Fast path first: Number() accepts every plain decimal; the checks after it refuse what Number() would also take
+  // but a spectrophotometer never writes as a reading (hex, binary, "Infinity", an empty cell read as 0).
+  const norm = decimalComma ? cell.replace(",", ".") : cell;
+  const v = Number(norm);
+  if (Number.isFinite(v)) {
+    const s = norm.trim();
+    if (s !== "" && !/[xXbBoO_]/.test(s)) return v;
+    if (s === "") return NaN;
+  }
+  const s = norm.trim();
   if (s === "") return NaN;
-  const norm = decimalComma ? s.replace(",", ".") : s;
-  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(norm)) return Number(norm);
-  if (/^[+-]?(\d|\.\d)/.test(norm)) return "partial";
+  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(s)) return Number(s);
+  if (/^[+-]?(\d|\.\d)/.test(s)) return "partial";
   return NaN;
 }

@@ -135,9 +135,10 @@ export function readRateTable(bytes: Uint8Array, file: string): RatePoint[] {
   if (kCol < 0) kCol = h.findIndex((_, i) => i !== tCol && i !== seCol);
   if (kCol < 0) throw new CliError(`${file}: line ${headerLine || 1}: no rate-constant column beside the temperature.`);
   const points: RatePoint[] = [];
-  table.rows.forEach((cells, r) => {
+  for (let r = 0; r < table.rowCount; r++) {
+    const cells = table.row(r);
     const line = table.first + 1 + r;
-    if (cells.length === 1 && !cells[0]!.trim()) return;
+    if (cells.length === 1 && !cells[0]!.trim()) continue;
     const num = (c: number, what: string, optional = false): number | null => {
       const raw = (cells[c] ?? "").trim();
       if (optional && raw === "") return null;
@@ -151,7 +152,7 @@ export function readRateTable(bytes: Uint8Array, file: string): RatePoint[] {
       k: num(kCol, "rate constant")!,
       se: seCol >= 0 ? num(seCol, "standard error", true) : null,
     });
-  });
+  }
   return points;
 }
 
