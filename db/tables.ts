@@ -94,6 +94,29 @@ export interface DbSeriesRow {
   t_max: number | null;
 }
 
+export interface DbFitRow {
+  id: number;
+  lab_id: number;
+  run_id: number;
+  series_id: number;
+  record_id: number | null;
+  version: number;
+  previous_id: number | null;
+  title: string;
+  primary_model: string;
+  k_value: number | null;
+  k_se: number | null;
+  state: string;
+  options: string;
+  results: string;
+  engine_version: string;
+  data_sha256: string;
+  content_hash: string;
+  reason: string | null;
+  author_id: number | null;
+  created_at: string;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -103,5 +126,6 @@ declare module "knex/types/tables" {
     raw_files: DbRawFileRow;
     runs: DbRunRow;
     series: DbSeriesRow;
+    fits: DbFitRow;
   }
 }

@@ -13,3 +13,4 @@ export * from "./regression";
 export * from "./stats";
 export * from "./temperature";
 export * from "./types";
+export * from "./workspace";

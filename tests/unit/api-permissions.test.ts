@@ -9,6 +9,7 @@ import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { signInWithPassword } from "@/lib/auth/sign-in";
 import { ingestExport } from "@/lib/ingest";
+import { saveFit } from "@/lib/fits";
 import { can, ROLES, type Permission, type Role } from "@/lib/permissions";
 import { freshDb } from "../helpers/db";
 
@@ -17,7 +18,7 @@ vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.curre
 
 type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 interface RouteCase {
-  methods: Partial<Record<Method, { permission: Permission; url: string; params?: Record<string, string>; form?: () => FormData; ok?: number[] }>>;
+  methods: Partial<Record<Method, { permission: Permission; url: string; params?: Record<string, string>; form?: () => FormData; json?: unknown; ok?: number[] }>>;
 }
 
 const CV_FILE = "fixtures/published/crystal-violet-590nm.csv";
@@ -47,6 +48,15 @@ const ROUTES: Record<string, RouteCase> = {
     methods: { GET: { permission: "run:read", url: "/api/runs/1/series/1?maxPoints=50", params: { id: "1", sid: "1" } } },
   },
   "app/api/raw-files/[id]/route.ts": { methods: { GET: { permission: "run:read", url: "/api/raw-files/1", params: { id: "1" } } } },
+  "app/api/fits/route.ts": {
+    methods: {
+      GET: { permission: "fit:read", url: "/api/fits" },
+      POST: { permission: "fit:write", url: "/api/fits", json: { runId: 1, seriesId: 1, title: "Matrix", options: { models: ["first-order"] } }, ok: [200, 201] },
+    },
+  },
+  "app/api/fits/[id]/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1", params: { id: "1" } } } },
+  "app/api/fits/[id]/versions/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1/versions", params: { id: "1" } } } },
+  "app/api/fits/[id]/export/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1/export?kind=parameters", params: { id: "1" } } } },
 };
 
 function routeFiles(dir = "app/api"): string[] {
@@ -67,6 +77,7 @@ beforeAll(async () => {
   // A stored run for the read routes (a different file from the one the POST cases upload).
   const analyst = users.get("analyst")!;
   await ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes: new Uint8Array(fs.readFileSync("parsers/delimited/fixtures/cv-tab-mmss.txt")), fileName: "cv-tab-mmss.txt" });
+  await saveFit(db, analyst, { runId: 1, seriesId: 1, title: "First", options: { models: ["linearized", "first-order"] } });
 });
 afterAll(() => db.destroy());
 
@@ -89,17 +100,18 @@ describe("route permission matrix", () => {
         it(`${method} ${spec.url} as ${who ?? "signed out"} -> ${allowed ? (spec.ok ?? [200]).join("/") : expected}`, async () => {
           session.current = who ? users.get(who)! : null;
           const mod = (await import(path.resolve(file))) as Record<string, (r: Request, c: unknown) => Promise<Response>>;
-          const req = new Request(`http://halflight.test${spec.url}`, { method, body: spec.form ? spec.form() : undefined });
+          const body = spec.form ? spec.form() : spec.json !== undefined ? JSON.stringify(spec.json) : undefined;
+          const req = new Request(`http://halflight.test${spec.url}`, { method, body });
           const res = await mod[method]!(req, { params: Promise.resolve(spec.params ?? {}) });
           if (allowed) expect(spec.ok ?? [200]).toContain(res.status);
           else expect(res.status).toBe(expected);
-          if (res.headers.get("content-type")?.includes("octet-stream")) return;
-          const body = (await res.json()) as { error?: { code: string; message: string } };
+          if (!res.headers.get("content-type")?.includes("json")) return;
+          const answer = (await res.json()) as { error?: { code: string; message: string } };
           if (!allowed) {
-            expect(body.error?.code).toBe(expected === 401 ? "unauthorized" : "forbidden");
-            expect(body.error?.message).toMatch(/\w/);
+            expect(answer.error?.code).toBe(expected === 401 ? "unauthorized" : "forbidden");
+            expect(answer.error?.message).toMatch(/\w/);
           } else {
-            expect(body.error).toBeUndefined();
+            expect(answer.error).toBeUndefined();
           }
         });
       }

@@ -1,0 +1,59 @@
+// Fit record versions.
+import type { Db } from "@/db";
+import type { DbFitRow } from "@/db/tables";
+
+export type NewFit = Omit<DbFitRow, "id">;
+
+export async function insertFitVersion(db: Db, row: NewFit): Promise<number> {
+  const [r] = await db("fits").insert(row).returning("id");
+  const id = typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r);
+  if (row.record_id === null) await db("fits").where({ id }).update({ record_id: id });
+  return id;
+}
+
+export async function getFit(db: Db, labId: number, id: number): Promise<(DbFitRow & { author_name: string | null; run_name: string; series_name: string }) | undefined> {
+  return db("fits as f")
+    .join("runs as r", "r.id", "f.run_id")
+    .join("series as s", "s.id", "f.series_id")
+    .leftJoin("users as u", "u.id", "f.author_id")
+    .where({ "f.lab_id": labId, "f.id": id })
+    .first("f.*", "u.display_name as author_name", "r.name as run_name", "s.name as series_name");
+}
+
+export async function listVersions(db: Db, labId: number, recordId: number): Promise<Array<DbFitRow & { author_name: string | null }>> {
+  return db("fits as f").leftJoin("users as u", "u.id", "f.author_id").where({ "f.lab_id": labId, "f.record_id": recordId }).orderBy("f.version").select("f.*", "u.display_name as author_name");
+}
+
+export async function latestVersion(db: Db, labId: number, recordId: number): Promise<DbFitRow | undefined> {
+  return db("fits").where({ lab_id: labId, record_id: recordId }).orderBy("version", "desc").first();
+}
+
+export interface FitListFilter {
+  labId: number;
+  runId?: number;
+  q?: string;
+  sort: "created_at" | "title" | "k_value" | "version";
+  dir: "asc" | "desc";
+  limit: number;
+  offset: number;
+}
+
+/** The newest version of each record. */
+export async function listLatestFits(db: Db, f: FitListFilter) {
+  const latest = db("fits").where("lab_id", f.labId).groupBy("record_id").max({ id: "id" });
+  const q = db("fits as f")
+    .whereIn("f.id", latest)
+    .join("runs as r", "r.id", "f.run_id")
+    .join("series as s", "s.id", "f.series_id")
+    .leftJoin("users as u", "u.id", "f.author_id");
+  if (f.runId) q.andWhere("f.run_id", f.runId);
+  if (f.q) q.andWhere((w) => w.whereLike("f.title", `%${f.q}%`).orWhereLike("r.name", `%${f.q}%`));
+  const total = await q.clone().count<{ n: number | string }[]>({ n: "*" }).first();
+  const rows = await q
+    .clone()
+    .select("f.id", "f.record_id", "f.version", "f.title", "f.primary_model", "f.k_value", "f.k_se", "f.state", "f.created_at", "f.run_id", "f.series_id", "r.name as run_name", "s.name as series_name", "u.display_name as author_name", "r.temperature_c")
+    .orderBy(`f.${f.sort}`, f.dir)
+    .limit(f.limit)
+    .offset(f.offset);
+  return { rows, total: Number(total?.n ?? 0) };
+}

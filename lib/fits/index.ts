@@ -1,0 +1,226 @@
+// Fit records: the server re-runs every saved fit with the engine, stores options, results, engine version and a
+// content hash; versions are immutable and chained; every save is an audit event.
+import { createHash } from "node:crypto";
+import type { Knex } from "knex";
+import { getFit, insertFitVersion, latestVersion, listLatestFits, listVersions } from "@/db/queries/fits";
+import { recordAudit } from "@/lib/audit";
+import { AppError } from "@/lib/errors";
+import { ENGINE_VERSION, fitSeriesWithOptions, type SeriesFitOutcome } from "@/lib/kinetics";
+import { readSeries } from "@/lib/runs";
+import type { FitOptions, SaveFitInput } from "@/lib/schemas/fits";
+import type { SignedInUser } from "@/lib/auth/sign-in";
+
+/** JSON with sorted keys, so equal content always hashes equally. */
+export function canonicalJson(v: unknown): string {
+  if (Array.isArray(v)) return `[${v.map(canonicalJson).join(",")}]`;
+  if (v && typeof v === "object")
+    return `{${Object.keys(v as Record<string, unknown>)
+      .filter((k) => (v as Record<string, unknown>)[k] !== undefined)
+      .sort()
+      .map((k) => `${JSON.stringify(k)}:${canonicalJson((v as Record<string, unknown>)[k])}`)
+      .join(",")}}`;
+  return JSON.stringify(v ?? null);
+}
+
+const sha = (s: string | Buffer) => createHash("sha256").update(s).digest("hex");
+
+export type StoredResults = Omit<SeriesFitOutcome, "curves" | "included"> & { excluded_indices: number[] };
+
+function storedResults(out: SeriesFitOutcome): StoredResults {
+  const { curves: _c, included, ...rest } = out;
+  return { ...rest, excluded_indices: included.flatMap((inc, i) => (inc ? [] : [i])) };
+}
+
+export function primaryOf(results: StoredResults) {
+  const m = results.models.find((x) => x.model === "first-order") ?? results.models[0];
+  const k = m?.result.parameters.find((p) => p.name === "k");
+  return { model: m?.model ?? "none", k: k?.value ?? null, se: k?.se ?? null };
+}
+
+export async function computeFit(db: Knex, labId: number, runId: number, seriesId: number, options: FitOptions) {
+  const { row, t, y } = await readSeries(db, labId, runId, seriesId);
+  const outcome = fitSeriesWithOptions(t, y, options);
+  const dataSha = sha(Buffer.concat([row.t_f64, row.y_f64]));
+  return { row, t, y, outcome, dataSha };
+}
+
+export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput, now = new Date()) {
+  let previous = null;
+  if (input.previousId) {
+    const p = await getFit(db, user.labId, input.previousId);
+    if (!p) throw new AppError({ code: "not_found", message: `There is no fit ${input.previousId} in this lab.` });
+    const latest = await latestVersion(db, user.labId, p.record_id!);
+    if (latest && latest.id !== p.id) throw new AppError({ code: "conflict", message: `Version ${p.version} is not the newest (version ${latest.version} is); open the newest before changing it.` });
+    if (p.series_id !== input.seriesId || p.run_id !== input.runId) throw new AppError({ code: "unprocessable", message: "A new version must fit the same series as the record it changes." });
+    if (!input.reason) throw new AppError({ code: "unprocessable", message: "Say why this version changes the record (a reason is required for every change).", issues: [{ path: "reason", message: "Required for a new version." }] });
+    previous = p;
+  }
+  const { outcome, dataSha } = await computeFit(db, user.labId, input.runId, input.seriesId, input.options);
+  if ((input.options.exclusions ?? []).some((e) => e.index >= outcome.included.length))
+    throw new AppError({ code: "unprocessable", message: "An excluded point is beyond the end of the series." });
+  const results = storedResults(outcome);
+  const contentHash = sha(canonicalJson({ data_sha256: dataSha, options: input.options, results, engine: ENGINE_VERSION }));
+  if (previous && previous.content_hash === contentHash) {
+    return { id: previous.id, record_id: previous.record_id!, version: previous.version, content_hash: contentHash, unchanged: true };
+  }
+  const primary = primaryOf(results);
+  return db.transaction(async (trx) => {
+    const version = previous ? previous.version + 1 : 1;
+    const id = await insertFitVersion(trx, {
+      lab_id: user.labId,
+      run_id: input.runId,
+      series_id: input.seriesId,
+      record_id: previous ? previous.record_id : null,
+      version,
+      previous_id: previous ? previous.id : null,
+      title: input.title ?? previous?.title ?? `Fit of ${input.seriesId}`,
+      primary_model: primary.model,
+      k_value: primary.k,
+      k_se: primary.se,
+      state: "draft",
+      options: canonicalJson(input.options),
+      results: JSON.stringify(results),
+      engine_version: ENGINE_VERSION,
+      data_sha256: dataSha,
+      content_hash: contentHash,
+      reason: input.reason ?? null,
+      author_id: user.userId,
+      created_at: now.toISOString(),
+    });
+    const recordId = previous ? previous.record_id! : id;
+    await recordAudit(trx, {
+      labId: user.labId,
+      actorUserId: user.userId,
+      action: previous ? "fit.version_saved" : "fit.created",
+      objectType: "fit",
+      objectId: recordId,
+      objectVersion: version,
+      oldValues: previous ? { version: previous.version, content_hash: previous.content_hash, options: JSON.parse(previous.options) } : undefined,
+      newValues: { version, content_hash: contentHash, options: input.options, k: primary.k, k_se: primary.se },
+      reason: input.reason ?? null,
+    });
+    return { id, record_id: recordId, version, content_hash: contentHash, unchanged: false };
+  });
+}
+
+function view(row: NonNullable<Awaited<ReturnType<typeof getFit>>>) {
+  return {
+    id: row.id,
+    record_id: row.record_id,
+    version: row.version,
+    previous_id: row.previous_id,
+    title: row.title,
+    run: { id: row.run_id, name: row.run_name },
+    series: { id: row.series_id, name: row.series_name },
+    state: row.state,
+    primary: { model: row.primary_model, k: row.k_value, k_se: row.k_se },
+    options: JSON.parse(row.options) as FitOptions,
+    results: JSON.parse(row.results) as StoredResults,
+    engine_version: row.engine_version,
+    data_sha256: row.data_sha256,
+    content_hash: row.content_hash,
+    reason: row.reason,
+    author: row.author_name,
+    created_at: row.created_at,
+  };
+}
+export type FitRecordView = ReturnType<typeof view>;
+
+export async function getFitRecord(db: Knex, labId: number, id: number): Promise<FitRecordView> {
+  const row = await getFit(db, labId, id);
+  if (!row) throw new AppError({ code: "not_found", message: `There is no fit ${id} in this lab.` });
+  return view(row);
+}
+
+export async function fitVersions(db: Knex, labId: number, id: number) {
+  const row = await getFit(db, labId, id);
+  if (!row) throw new AppError({ code: "not_found", message: `There is no fit ${id} in this lab.` });
+  const versions = await listVersions(db, labId, row.record_id!);
+  return versions.map((v, i) => ({
+    id: v.id,
+    version: v.version,
+    created_at: v.created_at,
+    author: v.author_name,
+    reason: v.reason,
+    content_hash: v.content_hash,
+    k: v.k_value,
+    k_se: v.k_se,
+    changes: i === 0 ? ["first version"] : describeChanges(JSON.parse(versions[i - 1]!.options) as FitOptions, JSON.parse(v.options) as FitOptions),
+  }));
+}
+
+/** What changed between two versions' options, in plain words. */
+export function describeChanges(a: FitOptions, b: FitOptions): string[] {
+  const out: string[] = [];
+  const ea = new Map((a.exclusions ?? []).map((e) => [e.index, e.reason]));
+  const eb = new Map((b.exclusions ?? []).map((e) => [e.index, e.reason]));
+  for (const [i, r] of eb) if (!ea.has(i)) out.push(`point ${i + 1} excluded: “${r}”`);
+  for (const [i] of ea) if (!eb.has(i)) out.push(`point ${i + 1} restored`);
+  const keys = new Set([...Object.keys(a.fixed ?? {}), ...Object.keys(b.fixed ?? {})]);
+  for (const k of keys) {
+    const x = a.fixed?.[k],
+      y = b.fixed?.[k];
+    if (x !== y) out.push(y === undefined ? `${k} no longer fixed` : x === undefined ? `${k} fixed at ${y}` : `${k} fixed at ${y} (was ${x})`);
+  }
+  if (canonicalJson(a.window ?? {}) !== canonicalJson(b.window ?? {})) out.push(`fitting window ${b.window?.from ?? "start"}–${b.window?.to ?? "end"} s`);
+  if (canonicalJson(a.models) !== canonicalJson(b.models)) out.push(`models: ${b.models.join(", ")}`);
+  if (canonicalJson(a.conversion ?? null) !== canonicalJson(b.conversion ?? null)) out.push(b.conversion ? `converted by Beer–Lambert (ε ${b.conversion.epsilon})` : "no conversion");
+  if (canonicalJson(a.starts ?? {}) !== canonicalJson(b.starts ?? {})) out.push("start values changed");
+  if ((a.interval ?? null) !== (b.interval ?? null)) out.push(`interval ${b.interval ?? "none"} s`);
+  return out.length ? out : ["no change to the options"];
+}
+
+export async function listFits(db: Knex, labId: number, q: { runId?: number; q?: string; sort: "created_at" | "title" | "k_value" | "version"; dir: "asc" | "desc"; page: number; pageSize: number }) {
+  const { rows, total } = await listLatestFits(db, { labId, runId: q.runId, q: q.q, sort: q.sort, dir: q.dir, limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
+  return { fits: rows, total, page: q.page, pageSize: q.pageSize };
+}
+
+/** Spreadsheet programs run cells that begin with = + − @ (or tab/CR) as formulas: such text cells get a leading '. */
+export function csvCell(v: unknown): string {
+  if (v === null || v === undefined) return "";
+  if (typeof v === "number") return Number.isFinite(v) ? String(v) : "";
+  let s = String(v);
+  if (/^[=+\-−@\t\r]/.test(s)) s = `'${s}`;
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+export async function fitDataCsv(db: Knex, labId: number, id: number): Promise<{ name: string; text: string }> {
+  const rec = await getFitRecord(db, labId, id);
+  const { t, y, outcome } = await computeFit(db, labId, rec.run.id, rec.series.id, rec.options);
+  const curveModels = rec.options.models.filter((m) => outcome.curves[m] && outcome.curves[m]!.t.length > 0);
+  const reasons = new Map((rec.options.exclusions ?? []).map((e) => [e.index, e.reason]));
+  const lines = [
+    `# ${csvCell(rec.title)} v${rec.version}; run ${csvCell(rec.run.name)}; series ${csvCell(rec.series.name)}; engine ${rec.engine_version}; content hash ${rec.content_hash}`,
+    ["t_s", "y", "included", "exclusion_reason", ...curveModels.flatMap((m) => [`fitted_${m}`, `residual_${m}`])].join(","),
+  ];
+  const pos = new Map<string, number>();
+  for (let i = 0; i < t.length; i++) {
+    const inc = outcome.included[i]!;
+    const cells: unknown[] = [t[i], y[i], inc ? 1 : 0, reasons.get(i) ?? ""];
+    for (const m of curveModels) {
+      if (inc) {
+        const p = pos.get(m) ?? 0;
+        cells.push(outcome.curves[m]!.fitted[p], outcome.curves[m]!.residuals[p]);
+        pos.set(m, p + 1);
+      } else cells.push("", "");
+    }
+    lines.push(cells.map(csvCell).join(","));
+  }
+  return { name: `fit-${rec.record_id}-v${rec.version}-data.csv`, text: lines.join("\n") + "\n" };
+}
+
+export async function fitParametersCsv(db: Knex, labId: number, id: number): Promise<{ name: string; text: string }> {
+  const rec = await getFitRecord(db, labId, id);
+  const lines = [
+    `# ${csvCell(rec.title)} v${rec.version}; engine ${rec.engine_version}; content hash ${rec.content_hash}; times in s, rate constants per second`,
+    "model,parameter,value,se,ci95_low,ci95_high,fixed,n,dof,ssr,r2,aicc,akaike_weight,runs,durbin_watson,converged,message",
+  ];
+  for (const m of rec.results.models)
+    for (const p of m.result.parameters)
+      lines.push(
+        [m.model, p.name, p.value, p.se, p.ci95?.[0], p.ci95?.[1], p.fixed ? 1 : 0, m.result.n, m.result.dof, m.result.ssr, m.result.r2, m.result.aicc, m.akaikeWeight, m.result.runs, m.result.durbin_watson, m.result.converged ? 1 : 0, m.result.message]
+          .map(csvCell)
+          .join(","),
+      );
+  return { name: `fit-${rec.record_id}-v${rec.version}-parameters.csv`, text: lines.join("\n") + "\n" };
+}

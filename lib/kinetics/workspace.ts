@@ -1,0 +1,118 @@
+// One series, several models, one set of options: the window, excluded points, fixed values, starts, an optional
+// Beer–Lambert conversion. The fitting page (in the browser) and the fit records (on the server) both call this, so a
+// saved record is the same computation the analyst saw.
+import { akaikeWeights } from "./diagnostics";
+import { fitKinetics } from "./fit";
+import { BUILT_IN_MODELS } from "./models";
+import { beerLambertConcentration, halfLife, t90 } from "./quantities";
+import type { FitResult } from "./types";
+
+export interface SeriesFitOptions {
+  models: string[];
+  formula?: string | null;
+  window?: { from?: number | null; to?: number | null };
+  /** Indices into the stored series, each with the analyst's reason. */
+  exclusions?: Array<{ index: number; reason: string }>;
+  /** Held values, applied to every model that has the parameter (e.g. a measured ainf). */
+  fixed?: Record<string, number>;
+  starts?: Record<string, number>;
+  /** Seconds, for Guggenheim and Kezdy–Swinbourne. */
+  interval?: number | null;
+  /** Linearized fit weighted by (y − A∞)². */
+  logWeights?: boolean;
+  conversion?: { kind: "beer-lambert"; epsilon: number; pathLengthCm: number; blank?: number | null } | null;
+}
+
+export interface ModelOutcome {
+  model: string;
+  result: Omit<FitResult, "residuals" | "fitted">;
+  akaikeWeight: number | null;
+  halfLife: { value: number; se: number | null } | null;
+  t90: { value: number; se: number | null } | null;
+}
+
+export interface SeriesFitOutcome {
+  n: number;
+  included: boolean[];
+  quantity: "absorbance" | "concentration";
+  models: ModelOutcome[];
+  /** The model the statistics favour among the comparable ones, and why, in plain words. */
+  favoured: { model: string; why: string } | null;
+  notes: string[];
+  /** Residuals and fitted values per model, over the included points (for plots; not stored in records). */
+  curves: Record<string, { t: Float64Array; fitted: Float64Array; residuals: Float64Array }>;
+}
+
+/** Models whose SSR is in the data's own units, so AICc can compare them. */
+const COMPARABLE = new Set(["first-order", "zero-order", "second-order", "biexponential", "formula"]);
+
+export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: SeriesFitOptions): SeriesFitOutcome {
+  const n = tAll.length;
+  const excluded = new Set((o.exclusions ?? []).map((e) => e.index));
+  const from = o.window?.from ?? -Infinity;
+  const to = o.window?.to ?? Infinity;
+  const included = Array.from({ length: n }, (_, i) => !excluded.has(i) && tAll[i]! >= from && tAll[i]! <= to);
+  const t: number[] = [],
+    y: number[] = [];
+  for (let i = 0; i < n; i++)
+    if (included[i]) {
+      t.push(tAll[i]!);
+      y.push(o.conversion ? beerLambertConcentration(yAll[i]!, { epsilon: o.conversion.epsilon, pathLengthCm: o.conversion.pathLengthCm, blank: o.conversion.blank ?? 0 }) : yAll[i]!);
+    }
+  const notes: string[] = [];
+  if (excluded.size) notes.push(`${excluded.size} point(s) excluded by the analyst, each with a reason.`);
+  if (o.window && (o.window.from != null || o.window.to != null)) notes.push(`Fitting window ${o.window.from ?? "start"} s to ${o.window.to ?? "end"} s.`);
+  if (o.conversion) notes.push(`Absorbance converted to concentration by Beer–Lambert: ε = ${o.conversion.epsilon} L mol⁻¹ cm⁻¹, b = ${o.conversion.pathLengthCm} cm${o.conversion.blank ? `, blank ${o.conversion.blank}` : ""}.`);
+
+  const tt = Float64Array.from(t),
+    yy = Float64Array.from(y);
+  const curves: SeriesFitOutcome["curves"] = {};
+  const raw = o.models.map((model) => {
+    const params = model === "formula" ? null : model === "linearized" ? ["k", "a0", "ainf"] : model === "guggenheim" ? ["k", "amplitude"] : model === "kezdy-swinbourne" ? ["k", "ainf"] : (BUILT_IN_MODELS[model]?.params ?? []);
+    const fixed = Object.fromEntries(Object.entries(o.fixed ?? {}).filter(([k]) => params === null || params.includes(k)));
+    const starts = Object.fromEntries(Object.entries(o.starts ?? {}).filter(([k]) => params === null || params.includes(k)));
+    const r = fitKinetics(tt, yy, {
+      model: model === "formula" ? undefined : model,
+      formula: model === "formula" ? (o.formula ?? "") : undefined,
+      fixed,
+      start: Object.keys(starts).length ? starts : undefined,
+      interval: o.interval ?? undefined,
+      logWeights: o.logWeights,
+    });
+    const { residuals, fitted, ...rest } = r;
+    const linearLike = model === "linearized" || model === "guggenheim" || model === "kezdy-swinbourne";
+    curves[model] = { t: linearLike ? Float64Array.from([]) : tt, fitted, residuals };
+    const k = r.parameters.find((p) => p.name === "k");
+    const firstOrderFamily = ["first-order", "linearized", "guggenheim", "kezdy-swinbourne"].includes(model);
+    return {
+      model,
+      result: rest,
+      halfLife: firstOrderFamily && k?.value ? halfLife(k.value, k.se) : null,
+      t90: firstOrderFamily && k?.value ? t90(k.value, k.se) : null,
+    };
+  });
+  const weights = akaikeWeights(raw.map((m) => (COMPARABLE.has(m.model) && m.result.converged ? m.result.aicc : null)));
+  const models: ModelOutcome[] = raw.map((m, i) => ({ ...m, akaikeWeight: weights[i] ?? null }));
+  let favoured: SeriesFitOutcome["favoured"] = null;
+  const ranked = models.filter((m) => m.akaikeWeight !== null).sort((a, b) => b.akaikeWeight! - a.akaikeWeight!);
+  if (ranked.length >= 2) {
+    const [best, next] = ranked as [ModelOutcome, ModelOutcome];
+    const ratio = best.akaikeWeight! / Math.max(next.akaikeWeight!, 1e-300);
+    favoured = {
+      model: best.model,
+      why:
+        ratio > 10
+          ? `${best.model} has the lowest AICc; its Akaike weight is ${best.akaikeWeight!.toFixed(3)}, more than ten times that of ${next.model}, so the data clearly favour it.`
+          : `${best.model} has the lowest AICc, but ${next.model} is close (weights ${best.akaikeWeight!.toFixed(2)} and ${next.akaikeWeight!.toFixed(2)}): the data do not clearly separate them.`,
+    };
+  } else if (ranked.length === 1) {
+    favoured = { model: ranked[0]!.model, why: "the only model here whose sum of squares is in the data's own units." };
+  }
+  if (models.some((m) => m.model === "linearized") && models.some((m) => m.model === "first-order")) {
+    const kl = models.find((m) => m.model === "linearized")!.result.parameters.find((p) => p.name === "k")?.value;
+    const kn = models.find((m) => m.model === "first-order")!.result.parameters.find((p) => p.name === "k")?.value;
+    if (kl && kn && Math.abs(kl / kn - 1) > 0.05)
+      notes.push(`The linearized and nonlinear first-order k differ by ${(100 * Math.abs(kl / kn - 1)).toFixed(0)} %: the log transform weights the noisy tail heavily, and a wrong or drifting A∞ bends the line. Prefer the nonlinear fit, and check A∞.`);
+  }
+  return { n: t.length, included, quantity: o.conversion ? "concentration" : "absorbance", models, favoured, notes, curves };
+}
