@@ -1,7 +1,7 @@
 // The app's two typefaces, shipped as woff2 files (no network at build or run time).
 import localFont from "next/font/local";
 
-export const sans = localFont({
+export const halflightSans = localFont({
   src: [
     { path: "./fonts/source-sans-3-latin-400-normal.woff2", weight: "400", style: "normal" },
     { path: "./fonts/source-sans-3-latin-400-italic.woff2", weight: "400", style: "italic" },
@@ -12,7 +12,7 @@ export const sans = localFont({
   display: "swap",
 });
 
-export const mono = localFont({
+export const halflightMono = localFont({
   src: [
     { path: "./fonts/ibm-plex-mono-latin-400-normal.woff2", weight: "400", style: "normal" },
     { path: "./fonts/ibm-plex-mono-latin-500-normal.woff2", weight: "500", style: "normal" },

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import type { ReactNode } from "react";
 import { ToastProvider } from "@/components/ui/toast";
-import { mono, sans } from "./fonts";
+import { halflightMono, halflightSans } from "./fonts";
 import "./globals.css";
 
 export const metadata: Metadata = {
@@ -11,7 +11,7 @@ export const metadata: Metadata = {
 
 export default function RootLayout({ children }: { children: ReactNode }) {
   return (
-    <html lang="en" className={`${sans.variable} ${mono.variable}`}>
+    <html lang="en" className={`${halflightSans.variable} ${halflightMono.variable}`}>
       <body className="min-h-screen">
         <ToastProvider>{children}</ToastProvider>
       </body>

@@ -13,7 +13,19 @@ const Plotly = dynamic(
 
 const FONT = { family: "var(--hl-font-sans), system-ui, sans-serif", size: 12, color: "#3a4457" };
 
-export function Plot({ data, layout, height = 320, label }: { data: PlotParams["data"]; layout?: PlotParams["layout"]; height?: number; label: string }) {
+export function Plot({
+  data,
+  layout,
+  height = 320,
+  label,
+  onClick,
+}: {
+  data: PlotParams["data"];
+  layout?: PlotParams["layout"];
+  height?: number;
+  label: string;
+  onClick?: PlotParams["onClick"];
+}) {
   return (
     <figure aria-label={label} className="w-full" style={{ height }}>
       <Plotly
@@ -21,16 +33,17 @@ export function Plot({ data, layout, height = 320, label }: { data: PlotParams["
         layout={{
           autosize: true,
           height,
-          margin: { l: 56, r: 16, t: 12, b: 44 },
+          margin: { l: 56, r: 16, t: 30, b: 44 },
           paper_bgcolor: "rgba(0,0,0,0)",
           plot_bgcolor: "#ffffff",
           font: FONT,
-          legend: { orientation: "h", y: -0.22 },
+          legend: { orientation: "h", x: 0, y: 1.0, yanchor: "bottom" },
           xaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.xaxis },
           yaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.yaxis },
           ...layout,
         }}
         config={{ displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d", "select2d"] }}
+        onClick={onClick}
         useResizeHandler
         style={{ width: "100%", height: "100%" }}
       />

@@ -87,5 +87,15 @@ export function demoFiles(): Array<{ name: string; text: string }> {
       ].join("\n") + "\n",
     });
   }
+  {
+    // Cell 2 of a 25 °C repeat drifts: its baseline creeps up (a film forming on the window), so A∞ is not constant and the
+    // linearized fit, with A∞ taken from the early plateau estimate, disagrees visibly with the nonlinear fit.
+    const { t, c1 } = trace(25, 5, 61, 2400);
+    const rows = t.map((ti, i) => `${ti.toFixed(0)},${(c1[i]! + 6e-5 * ti).toFixed(4)}`);
+    out.push({
+      name: "corvane-blue-25C-repeat-drift.csv",
+      text: ["# Larkspur Stability Services - demo export (invented data); cell window fouling suspected", "Wavelength: 590 nm", "Path length: 1 cm", "Temperature: 25.0 C", "", "Time (s),Cell 2 (A)", ...rows].join("\n") + "\n",
+    });
+  }
   return out;
 }

@@ -5,6 +5,9 @@ import type { Knex } from "knex";
 import fs from "node:fs";
 import path from "node:path";
 import { insertLab, countLabs } from "@/db/queries/labs";
+import { listMembershipsOfUser } from "@/db/queries/users";
+import type { SignedInUser } from "@/lib/auth/sign-in";
+import { saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { demoFiles } from "./demo-files";
 import { insertMembership, insertUser } from "@/db/queries/users";
@@ -55,15 +58,20 @@ async function seedDemoRuns(db: Knex): Promise<void> {
   const lab = await db("labs").where({ slug: DEMO_LAB.slug }).first();
   const analyst = await db("users").where({ email: DEMO_USERS.find((u) => u.role === "analyst")!.email }).first();
   fs.mkdirSync(DEMO_FILES_DIR, { recursive: true });
+  const memberships = await listMembershipsOfUser(db, analyst!.id);
+  const asAnalyst: SignedInUser = { userId: analyst!.id, email: analyst!.email, name: analyst!.display_name, labId: lab!.id, labSlug: lab!.slug, labName: lab!.name, role: memberships[0]!.role };
   for (const f of demoFiles()) {
     const file = path.join(DEMO_FILES_DIR, f.name);
     if (!fs.existsSync(file)) fs.writeFileSync(file, f.text);
-    await ingestExport(db, {
+    const stored = await ingestExport(db, {
       labId: lab!.id,
       userId: analyst!.id,
       bytes: new Uint8Array(fs.readFileSync(file)),
       fileName: f.name,
       mapping: { run: { study: "Corvane blue stability (demo)", sample: "corvane blue DEMO-7" } },
     });
+    // A saved fit on each run's first channel, made through the same path as the fitting page.
+    const s0 = stored.series[0]!;
+    await saveFit(db, asAnalyst, { runId: stored.run_id, seriesId: s0.id, title: `${f.name.replace(/\.[^.]+$/, "")} · ${s0.name}`, options: { models: ["linearized", "first-order"] } });
   }
 }

@@ -63,7 +63,7 @@ export async function setup(project: TestProject): Promise<void> {
   const dbFile = path.join(dir, "e2e.sqlite");
   const db = openDb(dbFile);
   await migrateToLatest(db);
-  await seedDemoWhenEmpty(db);
+  await seedDemoWhenEmpty(db, new Date(), { runs: true });
   const lab = await findLabBySlug(db, DEMO_LAB.slug);
   const now = new Date().toISOString();
   const u = await insertUser(db, {

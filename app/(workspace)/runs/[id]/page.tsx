@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { RunChannelsPlot } from "@/components/runs/run-plot";
 import { PageHeader } from "@/components/shell/page-header";
@@ -76,7 +77,12 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
             <tbody>
               {run.series.map((s) => (
                 <tr key={s.id}>
-                  <Td className="font-semibold">{s.name}</Td>
+                  <Td className="font-semibold">
+                    {s.name}{" "}
+                    <Link href={`/runs/${run.id}/series/${s.id}/fit`} className="ml-2 text-sm font-semibold text-quartz-700 underline" data-testid="fit-link">
+                      Fit
+                    </Link>
+                  </Td>
                   <Td>
                     {s.quantity} ({s.unit})
                     {typeof s.processing.converted === "string" && <Badge tone="accent">from %T</Badge>}

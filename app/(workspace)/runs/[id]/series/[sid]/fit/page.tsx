@@ -1,0 +1,38 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { FitWorkspace } from "@/components/fits/fit-workspace";
+import { getDb } from "@/db";
+import { requirePageUser } from "@/lib/auth/page";
+import { AppError } from "@/lib/errors";
+import { getFitRecord } from "@/lib/fits";
+import { ENGINE_VERSION } from "@/lib/kinetics/constants";
+import { can } from "@/lib/permissions";
+import { getRunDetail } from "@/lib/runs";
+
+export const metadata: Metadata = { title: "Fit a series" };
+
+export default async function FitPage({ params, searchParams }: { params: Promise<{ id: string; sid: string }>; searchParams: Promise<{ models?: string; from?: string }> }) {
+  const { id, sid } = await params;
+  const sp = await searchParams;
+  const user = await requirePageUser("fit:read", `/runs/${id}/series/${sid}/fit`);
+  const db = await getDb();
+  const orNotFound = (e: unknown): never => {
+    if (e instanceof AppError && e.code === "not_found") notFound();
+    throw e;
+  };
+  const run = await getRunDetail(db, user.labId, Number(id)).catch(orNotFound);
+  const series = run.series.find((s) => s.id === Number(sid));
+  if (!series) notFound();
+  const from = sp.from ? await getFitRecord(db, user.labId, Number(sp.from)).catch(orNotFound) : null;
+  if (from && (from.series.id !== series.id || from.run.id !== run.id)) notFound();
+  return (
+    <FitWorkspace
+      run={{ id: run.id, name: run.name, wavelength_nm: run.wavelength_nm, path_length_cm: run.path_length_cm, temperature_c: run.temperature_c }}
+      series={{ id: series.id, name: series.name, points: series.points, unit: series.unit, quantity: series.quantity }}
+      initialModels={sp.models ? sp.models.split(",").filter(Boolean) : null}
+      from={from ? { id: from.id, version: from.version, title: from.title, options: from.options } : null}
+      canSave={can(user, "fit:write")}
+      engineVersion={ENGINE_VERSION}
+    />
+  );
+}

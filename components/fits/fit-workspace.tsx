@@ -1,0 +1,485 @@
+"use client";
+// The fitting workspace for one series: data and fitted curves, residuals per model, the linearized view, the model
+// comparison table, and the controls (window, exclusions with reasons, fixed A∞, weighting, Beer–Lambert). Every
+// re-fit runs the same engine the server runs when the fit is saved.
+import Link from "next/link";
+import { usePathname, useRouter } from "next/navigation";
+import { useDeferredValue, useMemo, useState } from "react";
+import useSWR from "swr";
+import { Plot } from "@/components/plot/plot";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import { Dialog } from "@/components/ui/dialog";
+import { Input } from "@/components/ui/field";
+import { useToast } from "@/components/ui/toast";
+import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
+import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
+import { fetcher } from "@/lib/http/fetcher";
+import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
+import type { FitOptions } from "@/lib/schemas/fits";
+
+const ALL_MODELS = [
+  { id: "linearized", label: "Linearized first order" },
+  { id: "first-order", label: "Nonlinear first order" },
+  { id: "zero-order", label: "Zero order" },
+  { id: "second-order", label: "Second order" },
+  { id: "biexponential", label: "Two exponentials" },
+  { id: "guggenheim", label: "Guggenheim" },
+  { id: "kezdy-swinbourne", label: "Kezdy–Swinbourne" },
+] as const;
+const DEFAULT_MODELS = ["linearized", "first-order"];
+const CURVE_MODELS = new Set(["first-order", "zero-order", "second-order", "biexponential"]);
+
+interface Props {
+  run: { id: number; name: string; wavelength_nm: number | null; path_length_cm: number | null; temperature_c: number | null };
+  series: { id: number; name: string; points: number; unit: string; quantity: string };
+  initialModels: string[] | null;
+  from: { id: number; version: number; title: string; options: FitOptions } | null;
+  canSave: boolean;
+  engineVersion: string;
+}
+
+interface Points {
+  t: number[];
+  y: number[];
+}
+
+export function FitWorkspace(props: Props) {
+  const { data, error, mutate } = useSWR<Points>(`/api/runs/${props.run.id}/series/${props.series.id}?full=1`, fetcher);
+  return (
+    <div>
+      <header className="mb-6">
+        <p className="text-sm text-ink-500">
+          <Link href={`/runs/${props.run.id}`} className="text-quartz-700 hover:underline">
+            {props.run.name}
+          </Link>{" "}
+          · {props.series.name} · {props.series.points.toLocaleString("en")} points
+          {props.run.temperature_c != null ? ` · ${props.run.temperature_c} °C` : ""}
+        </p>
+        <h1 className="text-2xl font-semibold tracking-tight">{props.from ? `${props.from.title}, changing version ${props.from.version}` : "Fit a series"}</h1>
+      </header>
+      {error ? (
+        <div role="alert" className="rounded-cell bg-fault-100 px-4 py-3 text-fault-700">
+          The series could not be loaded: {error.message}{" "}
+          <button type="button" className="font-semibold underline" onClick={() => mutate()}>
+            Try again
+          </button>
+        </div>
+      ) : !data ? (
+        <div className="space-y-4" aria-label="Loading the series">
+          <div className="h-80 animate-pulse rounded-cell bg-paper-sunk" />
+          <div className="h-40 animate-pulse rounded-cell bg-paper-sunk" />
+        </div>
+      ) : (
+        <Workspace {...props} points={data} />
+      )}
+    </div>
+  );
+}
+
+function Workspace({ run, series, initialModels, from, canSave, engineVersion, points }: Props & { points: Points }) {
+  const router = useRouter();
+  const pathname = usePathname();
+  const toast = useToast();
+  const o = from?.options;
+  const [models, setModels] = useState<string[]>(initialModels ?? o?.models ?? DEFAULT_MODELS);
+  const [windowFrom, setWindowFrom] = useState<string>(o?.window?.from != null ? String(o.window.from) : "");
+  const [windowTo, setWindowTo] = useState<string>(o?.window?.to != null ? String(o.window.to) : "");
+  const [exclusions, setExclusions] = useState<Array<{ index: number; reason: string }>>(o?.exclusions ?? []);
+  const [fixAinf, setFixAinf] = useState<string>(o?.fixed?.ainf != null ? String(o.fixed.ainf) : "");
+  const [logWeights, setLogWeights] = useState(Boolean(o?.logWeights));
+  const [interval, setInterval] = useState<string>(o?.interval != null ? String(o.interval) : "");
+  const [epsilon, setEpsilon] = useState<string>(o?.conversion ? String(o.conversion.epsilon) : "");
+  const [pathLength, setPathLength] = useState<string>(o?.conversion ? String(o.conversion.pathLengthCm) : String(run.path_length_cm ?? 1));
+  const [perMinute, setPerMinute] = useState(true);
+  const [pending, setPending] = useState<number | null>(null);
+  const [reason, setReason] = useState("");
+  const [title, setTitle] = useState(from?.title ?? `${run.name} · ${series.name}`);
+  const [saveReason, setSaveReason] = useState("");
+  const [saving, setSaving] = useState(false);
+
+  const num = (s: string) => (s.trim() === "" ? null : Number(s.replace(",", ".")));
+  const options: FitOptions = useMemo(
+    () => ({
+      models: models as FitOptions["models"],
+      ...(num(windowFrom) !== null || num(windowTo) !== null ? { window: { from: num(windowFrom), to: num(windowTo) } } : {}),
+      ...(exclusions.length ? { exclusions } : {}),
+      ...(num(fixAinf) !== null && Number.isFinite(num(fixAinf)) ? { fixed: { ainf: num(fixAinf)! } } : {}),
+      ...(logWeights ? { logWeights: true } : {}),
+      ...(num(interval) ? { interval: num(interval) } : {}),
+      ...(num(epsilon) ? { conversion: { kind: "beer-lambert" as const, epsilon: num(epsilon)!, pathLengthCm: num(pathLength) ?? 1 } } : {}),
+    }),
+    [models, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength],
+  );
+  const deferred = useDeferredValue(options);
+  const outcome = useMemo(() => fitSeriesWithOptions(points.t, points.y, deferred as SeriesFitOptions), [points, deferred]);
+  const stale = deferred !== options;
+
+  const tScale = perMinute ? 60 : 1;
+  const tLabel = perMinute ? "t (min)" : "t (s)";
+  const kUnit = perMinute ? `min${superscript(-1)}` : `s${superscript(-1)}`;
+  const yLabel = outcome.quantity === "concentration" ? "c (mol L⁻¹)" : "A (AU)";
+  const conv = (v: number) => (options.conversion ? (v - 0) / (options.conversion.epsilon * options.conversion.pathLengthCm) : v);
+  const colour = solutionColour(run.wavelength_nm).hex;
+
+  function setModelList(next: string[]) {
+    setModels(next);
+    const params = new URLSearchParams(window.location.search);
+    params.set("models", next.join(","));
+    router.replace(`${pathname}?${params}`, { scroll: false });
+  }
+
+  function onPointClick(index: number) {
+    const ex = exclusions.find((e) => e.index === index);
+    if (ex) {
+      setExclusions(exclusions.filter((e) => e.index !== index));
+      toast(`Point ${index + 1} restored.`, "info");
+    } else {
+      setReason("");
+      setPending(index);
+    }
+  }
+
+  async function save() {
+    setSaving(true);
+    const res = await fetch("/api/fits", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ runId: run.id, seriesId: series.id, title, options, ...(from ? { previousId: from.id, reason: saveReason } : {}) }),
+    });
+    const body = await res.json();
+    setSaving(false);
+    if (!res.ok) {
+      toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+      return;
+    }
+    toast(body.unchanged ? "Nothing changed: the newest version already holds these options." : `Saved as version ${body.version}.`, "pass");
+    router.push(`/fits/${body.id}`);
+  }
+
+  const excludedSet = new Set(exclusions.map((e) => e.index));
+  const incIdx = points.t.map((_, i) => i).filter((i) => outcome.included[i]);
+  const exIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i]);
+  const long = points.t.length > 2000;
+  const stride = long ? Math.ceil(points.t.length / 2000) : 1;
+  const show = (idx: number[]) => idx.filter((_, j) => j % stride === 0);
+  const wFrom = num(windowFrom),
+    wTo = num(windowTo);
+  const linear = outcome.models.find((m) => m.model === "linearized");
+  const linAinf = linear?.result.parameters.find((p) => p.name === "ainf")?.value ?? null;
+  const linK = linear?.result.parameters.find((p) => p.name === "k")?.value ?? null;
+  const linA0 = linear?.result.parameters.find((p) => p.name === "a0")?.value ?? null;
+
+  return (
+    <div className="grid gap-6 xl:grid-cols-[1fr_22rem]">
+      <div className="min-w-0 space-y-6">
+        <section className="rounded-cell bg-paper-raised p-4 shadow-lift" aria-label="Data and fitted curves">
+          <Plot
+            label="Data and fitted curves"
+            height={340}
+            data={[
+              {
+                type: long ? "scattergl" : "scatter",
+                mode: "markers",
+                name: "included",
+                x: show(incIdx).map((i) => points.t[i]! / tScale),
+                y: show(incIdx).map((i) => conv(points.y[i]!)),
+                customdata: show(incIdx),
+                marker: { color: colour, size: 6 },
+              },
+              {
+                type: "scatter",
+                mode: "markers",
+                name: "excluded",
+                x: exIdx.map((i) => points.t[i]! / tScale),
+                y: exIdx.map((i) => conv(points.y[i]!)),
+                customdata: exIdx,
+                marker: { color: "#a9b1bf", size: 7, symbol: "x" },
+              },
+              ...outcome.models
+                .filter((m) => CURVE_MODELS.has(m.model) && m.result.converged)
+                .map((m, i) => ({
+                  type: long ? "scattergl" : "scatter",
+                  mode: "lines",
+                  name: `${m.model} fit`,
+                  x: Array.from(outcome.curves[m.model]!.t, (v) => v / tScale),
+                  y: Array.from(outcome.curves[m.model]!.fitted),
+                  line: { color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length], width: 2 },
+                })),
+            ] as never}
+            layout={{
+              xaxis: { title: { text: tLabel } },
+              yaxis: { title: { text: yLabel } },
+              shapes:
+                wFrom !== null || wTo !== null
+                  ? [{ type: "rect", xref: "x", yref: "paper", x0: (wFrom ?? points.t[0]!) / tScale, x1: (wTo ?? points.t.at(-1)!) / tScale, y0: 0, y1: 1, fillcolor: "#d7eef0", opacity: 0.35, line: { width: 0 }, layer: "below" }]
+                  : [],
+              clickmode: "event",
+            } as never}
+            onClick={(e) => {
+              const pt = e.points?.[0] as { customdata?: unknown } | undefined;
+              if (typeof pt?.customdata === "number") onPointClick(pt.customdata);
+            }}
+          />
+          <p className="mt-1 text-xs text-ink-500">
+            Click a point to exclude it (you will be asked why); click an excluded point (grey ×) to restore it. {long ? `Shown: every ${stride}th point; fits use all ${points.t.length.toLocaleString("en")}.` : ""}
+          </p>
+        </section>
+
+        <section className="grid gap-4 lg:grid-cols-2">
+          <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
+            <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Residuals</h2>
+            <Plot
+              label="Residuals per model"
+              height={220}
+              data={outcome.models
+                .filter((m) => CURVE_MODELS.has(m.model) && m.result.converged)
+                .map((m, i) => ({ type: "scatter", mode: "markers", name: m.model, x: Array.from(outcome.curves[m.model]!.t, (v) => v / tScale), y: Array.from(outcome.curves[m.model]!.residuals), marker: { size: 5, color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length] } })) as never}
+              layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "y − fitted" }, zeroline: true } } as never}
+            />
+          </div>
+          <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
+            <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Linearized view</h2>
+            {linear && linAinf !== null && linK !== null && linA0 !== null ? (
+              <Plot
+                label="ln|y − A∞| against time"
+                height={220}
+                data={[
+                  { type: "scatter", mode: "markers", name: "ln|y − A∞|", x: incIdx.filter((i) => Math.abs(points.y[i]! - linAinf) > 0).map((i) => points.t[i]! / tScale), y: incIdx.filter((i) => Math.abs(points.y[i]! - linAinf) > 0).map((i) => Math.log(Math.abs(conv(points.y[i]!) - linAinf))), marker: { size: 5, color: colour } },
+                  { type: "scatter", mode: "lines", name: "line", x: [points.t[incIdx[0] ?? 0]! / tScale, points.t[incIdx.at(-1) ?? 0]! / tScale], y: [points.t[incIdx[0] ?? 0]!, points.t[incIdx.at(-1) ?? 0]!].map((t) => Math.log(Math.abs(linA0 - linAinf)) - linK * t), line: { color: "#d55e00" } },
+                ] as never}
+                layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "ln|y − A∞|" } } } as never}
+              />
+            ) : (
+              <p className="text-sm text-ink-500">Add the linearized first-order model to see ln|y − A∞| against t.</p>
+            )}
+          </div>
+        </section>
+
+        <ComparisonTable outcome={outcome} perMinute={perMinute} kUnit={kUnit} stale={stale} />
+        <p className="text-xs text-ink-500">
+          Fitted in your browser by {engineVersion}; saving re-runs the same engine on the server and stores its numbers. Shelf-life or release decisions built on
+          these numbers are for qualified review under your lab&apos;s SOPs and local regulations.
+        </p>
+      </div>
+
+      <aside className="space-y-5" aria-label="Fit controls">
+        <fieldset className="rounded-cell bg-paper-raised p-4 shadow-lift">
+          <legend className="px-1 text-sm font-semibold">Models</legend>
+          {ALL_MODELS.map((m) => (
+            <label key={m.id} className="flex items-center gap-2 py-0.5 text-sm">
+              <input type="checkbox" checked={models.includes(m.id)} onChange={(e) => setModelList(e.target.checked ? [...models, m.id] : models.filter((x) => x !== m.id))} />
+              {m.label}
+            </label>
+          ))}
+          {(models.includes("guggenheim") || models.includes("kezdy-swinbourne")) && (
+            <div className="mt-2">
+              <Input label="Interval for Guggenheim / Kezdy–Swinbourne (s)" inputMode="decimal" value={interval} onChange={(e) => setInterval(e.target.value)} hint="Pairs of readings this far apart; 2–3 half-lives is usual." />
+            </div>
+          )}
+        </fieldset>
+        <fieldset className="space-y-3 rounded-cell bg-paper-raised p-4 shadow-lift">
+          <legend className="px-1 text-sm font-semibold">Window and A∞</legend>
+          <div className="grid grid-cols-2 gap-3">
+            <Input label="From (s)" inputMode="decimal" value={windowFrom} onChange={(e) => setWindowFrom(e.target.value)} />
+            <Input label="To (s)" inputMode="decimal" value={windowTo} onChange={(e) => setWindowTo(e.target.value)} />
+          </div>
+          <Input label="Fix A∞ at (measured)" inputMode="decimal" value={fixAinf} onChange={(e) => setFixAinf(e.target.value)} hint="Empty: A∞ is fitted (and estimated for the linearized view)." />
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" checked={logWeights} onChange={(e) => setLogWeights(e.target.checked)} />
+            Weight the linearized fit by (y − A∞)²
+          </label>
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" checked={perMinute} onChange={(e) => setPerMinute(e.target.checked)} />
+            Show times in minutes and k per minute (stored in seconds)
+          </label>
+        </fieldset>
+        <fieldset className="space-y-3 rounded-cell bg-paper-raised p-4 shadow-lift">
+          <legend className="px-1 text-sm font-semibold">Concentration (Beer–Lambert)</legend>
+          <Input label="ε (L mol⁻¹ cm⁻¹)" inputMode="decimal" value={epsilon} onChange={(e) => setEpsilon(e.target.value)} hint="Empty: fit absorbance." />
+          <Input label="Path length b (cm)" inputMode="decimal" value={pathLength} onChange={(e) => setPathLength(e.target.value)} />
+        </fieldset>
+        <fieldset className="rounded-cell bg-paper-raised p-4 shadow-lift">
+          <legend className="px-1 text-sm font-semibold">Excluded points ({exclusions.length})</legend>
+          {exclusions.length === 0 ? (
+            <p className="text-sm text-ink-500">None. Click a point on the plot to exclude it.</p>
+          ) : (
+            <ul className="space-y-1 text-sm" data-testid="exclusions">
+              {exclusions.map((e) => (
+                <li key={e.index} className="flex items-start justify-between gap-2">
+                  <span>
+                    <span className="font-mono">#{e.index + 1}</span> at {formatNumber(points.t[e.index]! / tScale, 4)} {perMinute ? "min" : "s"}: {e.reason}
+                  </span>
+                  <button type="button" className="text-quartz-700 underline" onClick={() => setExclusions(exclusions.filter((x) => x.index !== e.index))}>
+                    restore
+                  </button>
+                </li>
+              ))}
+            </ul>
+          )}
+          <ExcludeByNumber n={points.t.length} excluded={excludedSet} onPick={(i) => { setReason(""); setPending(i); }} />
+        </fieldset>
+        {canSave ? (
+          <fieldset className="space-y-3 rounded-cell bg-paper-raised p-4 shadow-lift">
+            <legend className="px-1 text-sm font-semibold">Save</legend>
+            <Input label="Title" value={title} onChange={(e) => setTitle(e.target.value)} />
+            {from && <Input label="Why this new version (required)" value={saveReason} onChange={(e) => setSaveReason(e.target.value)} />}
+            <Button onClick={save} disabled={saving || (Boolean(from) && saveReason.trim().length < 3)} className="w-full" data-testid="save-fit">
+              {saving ? "Saving…" : from ? `Save version ${from.version + 1}` : "Save fit record"}
+            </Button>
+            <p className="text-xs text-ink-500">The server re-runs the fit and keeps every version; nothing is overwritten.</p>
+          </fieldset>
+        ) : (
+          <p className="text-sm text-ink-500">Your role can look at fits but not save them.</p>
+        )}
+      </aside>
+
+      <Dialog open={pending !== null} onClose={() => setPending(null)} title={pending !== null ? `Exclude point ${pending + 1}` : "Exclude a point"}>
+        <form
+          onSubmit={(e) => {
+            e.preventDefault();
+            if (pending === null || reason.trim().length < 3) return;
+            setExclusions([...exclusions, { index: pending, reason: reason.trim() }].sort((a, b) => a.index - b.index));
+            setPending(null);
+          }}
+          className="space-y-4"
+        >
+          {pending !== null && (
+            <p className="text-sm">
+              t = {formatNumber(points.t[pending]! / tScale, 5)} {perMinute ? "min" : "s"}, y = {formatNumber(points.y[pending]!, 5)}. The point stays in the record, greyed, with your reason.
+            </p>
+          )}
+          <Input label="Reason (required)" value={reason} onChange={(e) => setReason(e.target.value)} autoFocus minLength={3} required />
+          <div className="flex justify-end gap-2">
+            <Button variant="secondary" onClick={() => setPending(null)}>
+              Cancel
+            </Button>
+            <Button type="submit" disabled={reason.trim().length < 3}>
+              Exclude
+            </Button>
+          </div>
+        </form>
+      </Dialog>
+    </div>
+  );
+}
+
+function ExcludeByNumber({ n, excluded, onPick }: { n: number; excluded: Set<number>; onPick: (i: number) => void }) {
+  const [v, setV] = useState("");
+  const i = Number(v) - 1;
+  const ok = Number.isInteger(i) && i >= 0 && i < n && !excluded.has(i);
+  return (
+    <form
+      className="mt-3 flex items-end gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (ok) onPick(i);
+      }}
+    >
+      <div className="flex-1">
+        <Input label="Exclude point number" inputMode="numeric" value={v} onChange={(e) => setV(e.target.value)} hint={`1 to ${n}; keyboard alternative to clicking.`} />
+      </div>
+      <Button type="submit" variant="secondary" disabled={!ok}>
+        Exclude…
+      </Button>
+    </form>
+  );
+}
+
+type Outcome = ReturnType<typeof fitSeriesWithOptions>;
+type ModelRow = Outcome["models"][number];
+const dash = (v: number | null | undefined, f: (x: number) => string) => (v === null || v === undefined ? "—" : f(v));
+const inTime = (v: { value: number; se: number | null } | null, perMinute: boolean) =>
+  v ? `${formatWithUncertainty(v.value / (perMinute ? 60 : 1), v.se === null ? null : v.se / (perMinute ? 60 : 1))} ${perMinute ? "min" : "s"}` : "—";
+
+const STAT_ROWS: Array<[string, (m: ModelRow, perMinute: boolean) => string]> = [
+  ["points fitted", (m) => String(m.result.n)],
+  ["SSR", (m) => formatNumber(m.result.ssr, 4)],
+  ["r²", (m) => dash(m.result.r2, (v) => v.toFixed(5))],
+  ["RMSE", (m) => formatNumber(m.result.rmse, 3)],
+  ["AICc", (m) => dash(m.result.aicc, (v) => v.toFixed(2))],
+  ["Akaike weight", (m) => dash(m.akaikeWeight, (v) => v.toFixed(3))],
+  ["runs of residual signs", (m) => dash(m.result.runs, (v) => `${v}${m.result.runs_p !== null ? ` (p ${m.result.runs_p.toFixed(2)})` : ""}`)],
+  ["Durbin–Watson", (m) => dash(m.result.durbin_watson, (v) => v.toFixed(2))],
+  ["t½", (m, pm) => inTime(m.halfLife, pm)],
+  ["t90", (m, pm) => inTime(m.t90, pm)],
+];
+
+function ComparisonTable({ outcome, perMinute, kUnit, stale }: { outcome: Outcome; perMinute: boolean; kUnit: string; stale: boolean }) {
+  const scaleOf = (name: string) => (perMinute && (name === "k" || /^k\d$/.test(name)) ? 60 : 1);
+  const paramNames = [...new Set(outcome.models.flatMap((m) => m.result.parameters.map((p) => p.name)))];
+  return (
+    <section className={`rounded-cell bg-paper-raised p-4 shadow-lift ${stale ? "opacity-70" : ""}`} aria-label="Model comparison" aria-busy={stale}>
+      <h2 className="mb-2 text-lg font-semibold">Model comparison</h2>
+      {outcome.favoured && (
+        <p className="mb-3 text-sm" data-testid="favoured">
+          <Badge tone="pass">Favoured: {outcome.favoured.model}</Badge> <span className="text-ink-700">{outcome.favoured.why}</span>
+        </p>
+      )}
+      {outcome.notes.map((n) => (
+        <p key={n} className="mb-2 rounded-cell bg-caution-100 px-3 py-2 text-sm text-caution-700">
+          {n}
+        </p>
+      ))}
+      <div className="overflow-x-auto">
+        <table className="w-full text-sm" data-testid="comparison">
+          <thead>
+            <tr className="border-b border-ink-100 text-left text-xs uppercase tracking-wide text-ink-500">
+              <th className="py-2 pr-4" scope="col">
+                Statistic
+              </th>
+              {outcome.models.map((m) => (
+                <th key={m.model} scope="col" data-model={m.model} className="pr-4 normal-case">
+                  <span className="text-sm font-semibold text-ink-900">{m.model}</span>
+                  {outcome.favoured?.model === m.model && <Badge tone="pass">favoured</Badge>}
+                  {!m.result.converged && <Badge tone="fault">no fit</Badge>}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {paramNames.map((name) => (
+              <tr key={name} className="border-b border-ink-100 align-top">
+                <th scope="row" className="py-1.5 pr-4 text-left font-mono text-xs font-normal text-ink-700">
+                  {name}
+                  {scaleOf(name) !== 1 || name === "k" ? ` (${kUnit})` : ""}
+                </th>
+                {outcome.models.map((m) => {
+                  const p = m.result.parameters.find((q) => q.name === name);
+                  return (
+                    <td key={m.model} className="num pr-4 font-mono text-xs" data-param={name}>
+                      {!p ? "" : p.value === null ? "—" : formatWithUncertainty(p.value * scaleOf(name), p.se === null ? null : p.se * scaleOf(name))}
+                      {p?.fixed ? " (fixed)" : p?.ci95 ? <span className="block text-ink-500">95 % CI {formatNumber(p.ci95[0] * scaleOf(name), 4)} … {formatNumber(p.ci95[1] * scaleOf(name), 4)}</span> : null}
+                    </td>
+                  );
+                })}
+              </tr>
+            ))}
+            {STAT_ROWS.map(([label, get]) => (
+              <tr key={label} className="border-b border-ink-100">
+                <th scope="row" className="py-1.5 pr-4 text-left text-xs font-normal text-ink-700">
+                  {label}
+                </th>
+                {outcome.models.map((m) => (
+                  <td key={m.model} className="num pr-4 font-mono text-xs">
+                    {get(m, perMinute)}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {outcome.models.flatMap((m) =>
+        [...(m.result.converged ? [] : [m.result.message]), ...m.result.warnings].map((w) => (
+          <p key={`${m.model}-${w}`} className="mt-2 text-xs text-caution-700">
+            {m.model}: {w}
+          </p>
+        )),
+      )}
+      <p className="mt-2 text-xs text-ink-500">
+        AICc and Akaike weights compare only models whose sum of squares is in the data&apos;s units (not the straight-line methods, which work in log units or on pairs).
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,75 @@
+// The fitting workspace as an analyst uses it: open a demo run's fit, see both default fits with residuals, exclude a
+// point with a reason, fix A∞, save version 2, see it listed with the exclusion and its reason, and check the CSV's k.
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { BrowserContext, Page } from "playwright-core";
+import { DEMO_USERS } from "@/db/seeds/demo";
+import { formatWithUncertainty } from "@/lib/format/number";
+import { openBrowser, signIn } from "./chromium";
+
+const baseURL = inject("baseURL");
+const artifacts = inject("artifacts");
+let context: BrowserContext;
+let close: () => Promise<void>;
+let page: Page;
+
+beforeAll(async () => {
+  ({ context, close } = await openBrowser());
+  page = await context.newPage();
+  const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
+  await signIn(page, baseURL, analyst.email, analyst.password);
+  await page.getByTestId("workspace-nav").waitFor();
+});
+afterAll(async () => {
+  await close();
+});
+
+describe("fitting workspace", () => {
+  it("opens a demo run's series and shows both default fits with residuals", async () => {
+    await page.goto(`${baseURL}/runs`);
+    await page.getByRole("link", { name: /corvane-blue-25C-repeat-drift/ }).click();
+    await page.getByTestId("fit-link").first().click();
+    const table = page.getByTestId("comparison");
+    await table.waitFor();
+    await expect(table.locator("th[data-model]").evaluateAll((rows) => rows.map((r) => r.getAttribute("data-model")))).resolves.toEqual(["linearized", "first-order"]);
+    await page.getByRole("figure", { name: "Residuals per model" }).locator(".main-svg").first().waitFor();
+    await expect(page.getByText(/linearized and nonlinear first-order k differ by/).isVisible()).resolves.toBe(true);
+    await page.screenshot({ path: path.join(artifacts, "fit-workspace.png"), fullPage: true });
+  });
+
+  it("excludes a point with a reason, fixes A∞, saves version 2 and shows what changed", async () => {
+    await page.goto(`${baseURL}/fits`);
+    await page.getByRole("link", { name: /corvane-blue-25C · Cell 1/ }).click();
+    await page.getByRole("link", { name: "Change (new version)" }).click();
+    await page.getByTestId("comparison").waitFor();
+    await page.getByLabel("Exclude point number").fill("5");
+    await page.getByRole("button", { name: "Exclude…" }).click();
+    await page.getByLabel("Reason (required)").fill("air bubble seen in cell 1");
+    await page.getByRole("button", { name: "Exclude", exact: true }).click();
+    await expect(page.getByTestId("exclusions").textContent()).resolves.toMatch(/#5 .*air bubble seen in cell 1/);
+    await page.getByLabel("Fix A∞ at (measured)").fill("0.045");
+    await page.getByLabel("Why this new version (required)").fill("bubble excluded; A∞ measured after 24 h");
+    await page.getByTestId("save-fit").click();
+    await page.waitForURL(/\/fits\/\d+$/);
+    const versions = page.getByTestId("versions");
+    await versions.waitFor();
+    await expect(versions.textContent()).resolves.toMatch(/Version 2.*Why: bubble excluded; A∞ measured after 24 h.*point 5 excluded: “air bubble seen in cell 1”.*ainf fixed at 0\.045/s);
+    await expect(page.getByTestId("record-options").textContent()).resolves.toMatch(/Point 5 excluded: “air bubble seen in cell 1”/);
+    await page.screenshot({ path: path.join(artifacts, "fit-record.png"), fullPage: true });
+
+    // The CSV's k, printed the page's way, is the page's k.
+    const pageK = (await page.getByTestId("record-k").textContent())!;
+    const url = new URL(page.url());
+    const id = url.pathname.split("/").pop();
+    const csv = await (await page.request.get(`${baseURL}/api/fits/${id}/export?kind=parameters`)).text();
+    const row = csv.split("\n").find((l) => l.startsWith("first-order,k,"))!.split(",");
+    expect(pageK).toContain(formatWithUncertainty(Number(row[2]), Number(row[3])));
+    const data = await page.request.get(`${baseURL}/api/fits/${id}/export?kind=data`);
+    expect(data.headers()["content-disposition"]).toMatch(/attachment; filename="fit-\d+-v2-data\.csv"/);
+    expect(await data.text()).toMatch(/,0,air bubble seen in cell 1,/);
+
+    await page.goto(`${baseURL}/fits`);
+    const rowEl = page.getByRole("row", { name: /corvane-blue-25C · Cell 1/ });
+    await expect(rowEl.getByTestId("fit-version").textContent()).resolves.toBe("v2");
+  });
+});
