@@ -4,7 +4,7 @@
 // re-fit runs the same engine the server runs when the fit is saved.
 import Link from "next/link";
 import { usePathname, useRouter } from "next/navigation";
-import { useDeferredValue, useMemo, useState } from "react";
+import { useMemo, useState } from "react";
 import useSWR from "swr";
 import { Plot } from "@/components/plot/plot";
 import { Badge } from "@/components/ui/badge";
@@ -15,8 +15,10 @@ import { useToast } from "@/components/ui/toast";
 import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
 import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { fetcher } from "@/lib/http/fetcher";
+import { firstOrderRate, localTangentRate } from "@/lib/kinetics/quantities";
 import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import type { FitOptions } from "@/lib/schemas/fits";
+import { useSeriesFit } from "./use-fit";
 
 const ALL_MODELS = [
   { id: "linearized", label: "Linearized first order" },
@@ -26,9 +28,10 @@ const ALL_MODELS = [
   { id: "biexponential", label: "Two exponentials" },
   { id: "guggenheim", label: "Guggenheim" },
   { id: "kezdy-swinbourne", label: "Kezdy–Swinbourne" },
+  { id: "formula", label: "Own formula" },
 ] as const;
 const DEFAULT_MODELS = ["linearized", "first-order"];
-const CURVE_MODELS = new Set(["first-order", "zero-order", "second-order", "biexponential"]);
+const CURVE_MODELS = new Set(["first-order", "zero-order", "second-order", "biexponential", "formula"]);
 
 interface Props {
   run: { id: number; name: string; wavelength_nm: number | null; path_length_cm: number | null; temperature_c: number | null };
@@ -97,11 +100,26 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const [title, setTitle] = useState(from?.title ?? `${run.name} · ${series.name}`);
   const [saveReason, setSaveReason] = useState("");
   const [saving, setSaving] = useState(false);
+  const [formula, setFormula] = useState<string>(o?.formula ?? "");
+  const [startsText, setStartsText] = useState<string>(Object.entries(o?.starts ?? {}).map(([k, v]) => `${k}=${v}`).join(", "));
+  const [selected, setSelected] = useState<number[]>([]);
+  const [pendingMany, setPendingMany] = useState<number[] | null>(null);
+  const [rateAt, setRateAt] = useState<string>("");
 
   const num = (s: string) => (s.trim() === "" ? null : Number(s.replace(",", ".")));
+  const starts = useMemo(() => {
+    const out: Record<string, number> = {};
+    for (const part of startsText.split(/[,;]/)) {
+      const m = part.match(/^\s*([A-Za-z_]\w*)\s*=\s*([-+0-9.eE]+)\s*$/);
+      if (m && Number.isFinite(Number(m[2]))) out[m[1]!] = Number(m[2]);
+    }
+    return out;
+  }, [startsText]);
   const options: FitOptions = useMemo(
     () => ({
       models: models as FitOptions["models"],
+      ...(models.includes("formula") ? { formula } : {}),
+      ...(Object.keys(starts).length ? { starts } : {}),
       ...(num(windowFrom) !== null || num(windowTo) !== null ? { window: { from: num(windowFrom), to: num(windowTo) } } : {}),
       ...(exclusions.length ? { exclusions } : {}),
       ...(num(fixAinf) !== null && Number.isFinite(num(fixAinf)) ? { fixed: { ainf: num(fixAinf)! } } : {}),
@@ -109,11 +127,9 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
       ...(num(interval) ? { interval: num(interval) } : {}),
       ...(num(epsilon) ? { conversion: { kind: "beer-lambert" as const, epsilon: num(epsilon)!, pathLengthCm: num(pathLength) ?? 1 } } : {}),
     }),
-    [models, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength],
+    [models, formula, starts, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength],
   );
-  const deferred = useDeferredValue(options);
-  const outcome = useMemo(() => fitSeriesWithOptions(points.t, points.y, deferred as SeriesFitOptions), [points, deferred]);
-  const stale = deferred !== options;
+  const { outcome, ms, where, busy: stale } = useSeriesFit(points.t, points.y, options as SeriesFitOptions);
 
   const tScale = perMinute ? 60 : 1;
   const tLabel = perMinute ? "t (min)" : "t (s)";
@@ -158,6 +174,23 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   }
 
   const excludedSet = new Set(exclusions.map((e) => e.index));
+  const rate = useMemo(() => {
+    const at = num(rateAt);
+    const fo = outcome.models.find((m) => m.model === "first-order" && m.result.converged);
+    if (at === null || !fo) return null;
+    const tAt = at * tScale;
+    const p = Object.fromEntries(fo.result.parameters.map((q) => [q.name, q.value!])) as { a0: number; ainf: number; k: number };
+    const model = firstOrderRate(p, tAt);
+    const span = (points.t.at(-1)! - points.t[0]!) * 0.05;
+    let data: { rate: number; se: number; points: number } | null = null;
+    try {
+      data = localTangentRate(points.t.filter((_, i) => outcome.included[i]), points.y.filter((_, i) => outcome.included[i]), tAt, span);
+    } catch {
+      data = null;
+    }
+    const yAt = p.ainf + (p.a0 - p.ainf) * Math.exp(-p.k * tAt);
+    return { tAt, model, data, line: { x: [tAt - span * 2, tAt + span * 2], y: [yAt + model * span * 2, yAt - model * span * 2] } };
+  }, [rateAt, outcome, tScale, points]);
   const incIdx = points.t.map((_, i) => i).filter((i) => outcome.included[i]);
   const exIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i]);
   const long = points.t.length > 2000;
@@ -206,6 +239,9 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
                   y: Array.from(outcome.curves[m.model]!.fitted),
                   line: { color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length], width: 2 },
                 })),
+              ...(rate
+                ? [{ type: "scatter", mode: "lines", name: "tangent (model)", x: rate.line.x.map((v) => v / tScale), y: rate.line.y, line: { color: "#1b2230", dash: "dash", width: 1.5 } }]
+                : []),
             ] as never}
             layout={{
               xaxis: { title: { text: tLabel } },
@@ -220,9 +256,36 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
               const pt = e.points?.[0] as { customdata?: unknown } | undefined;
               if (typeof pt?.customdata === "number") onPointClick(pt.customdata);
             }}
+            onSelected={(e) => {
+              const idx = (e?.points ?? []).map((p) => (p as { customdata?: unknown }).customdata).filter((v): v is number => typeof v === "number");
+              setSelected(idx.filter((i) => !excludedSet.has(i)));
+            }}
           />
+          {selected.length > 0 && (
+            <div className="mt-2 flex flex-wrap items-center gap-2 rounded-cell bg-quartz-100 px-3 py-2 text-sm" data-testid="selection-bar">
+              <span>{selected.length} point(s) selected</span>
+              <Button size="sm" variant="secondary" onClick={() => { setReason(""); setPendingMany(selected); }}>
+                Exclude them…
+              </Button>
+              <Button
+                size="sm"
+                variant="secondary"
+                onClick={() => {
+                  const ts = selected.map((i) => points.t[i]!);
+                  setWindowFrom(String(Math.min(...ts)));
+                  setWindowTo(String(Math.max(...ts)));
+                  setSelected([]);
+                }}
+              >
+                Fit only their time range
+              </Button>
+              <Button size="sm" variant="quiet" onClick={() => setSelected([])}>
+                Clear
+              </Button>
+            </div>
+          )}
           <p className="mt-1 text-xs text-ink-500">
-            Click a point to exclude it (you will be asked why); click an excluded point (grey ×) to restore it. {long ? `Shown: every ${stride}th point; fits use all ${points.t.length.toLocaleString("en")}.` : ""}
+            Click a point to exclude it (you will be asked why); click an excluded point (grey ×) to restore it; or use the box-select tool to pick several. {long ? `Shown: every ${stride}th point; fits use all ${points.t.length.toLocaleString("en")}.` : ""}
           </p>
         </section>
 
@@ -258,7 +321,8 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
 
         <ComparisonTable outcome={outcome} perMinute={perMinute} kUnit={kUnit} stale={stale} />
         <p className="text-xs text-ink-500">
-          Fitted in your browser by {engineVersion}; saving re-runs the same engine on the server and stores its numbers. Shelf-life or release decisions built on
+          Fitted in your browser by {engineVersion} ({where === "worker" ? "in a background worker" : "on the page"}{ms !== null ? `, ${ms.toFixed(0)} ms` : ""}
+          {stale ? ", re-fitting…" : ""}); saving re-runs the same engine on the server and stores its numbers. Shelf-life or release decisions built on
           these numbers are for qualified review under your lab&apos;s SOPs and local regulations.
         </p>
       </div>
@@ -272,6 +336,14 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
               {m.label}
             </label>
           ))}
+          {models.includes("formula") && (
+            <div className="mt-2">
+              <Input label="Formula in t (seconds)" value={formula} onChange={(e) => setFormula(e.target.value)} placeholder="b1*(1-exp(-b2*t)) + b3" hint="Standard notation: ^ for powers, exp, atan, pi. Every other name is a parameter." />
+            </div>
+          )}
+          <div className="mt-2">
+            <Input label="Start values (advanced)" value={startsText} onChange={(e) => setStartsText(e.target.value)} placeholder="k=0.002, b1=1" hint="Per second. Built-in models find their own; formulas start at 1." />
+          </div>
           {(models.includes("guggenheim") || models.includes("kezdy-swinbourne")) && (
             <div className="mt-2">
               <Input label="Interval for Guggenheim / Kezdy–Swinbourne (s)" inputMode="decimal" value={interval} onChange={(e) => setInterval(e.target.value)} hint="Pairs of readings this far apart; 2–3 half-lives is usual." />
@@ -298,6 +370,17 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           <legend className="px-1 text-sm font-semibold">Concentration (Beer–Lambert)</legend>
           <Input label="ε (L mol⁻¹ cm⁻¹)" inputMode="decimal" value={epsilon} onChange={(e) => setEpsilon(e.target.value)} hint="Empty: fit absorbance." />
           <Input label="Path length b (cm)" inputMode="decimal" value={pathLength} onChange={(e) => setPathLength(e.target.value)} />
+        </fieldset>
+        <fieldset className="space-y-2 rounded-cell bg-paper-raised p-4 shadow-lift">
+          <legend className="px-1 text-sm font-semibold">Rate at a time</legend>
+          <Input label={`At t (${perMinute ? "min" : "s"})`} inputMode="decimal" value={rateAt} onChange={(e) => setRateAt(e.target.value)} hint="−dy/dt from the nonlinear first-order fit, and a local straight line through the data (±5 % of the span)." />
+          {rate && (
+            <p className="num text-sm" data-testid="rate">
+              model: {formatNumber(rate.model * (perMinute ? 60 : 1), 4)} {outcome.quantity === "concentration" ? "mol L⁻¹" : "AU"} {perMinute ? "min⁻¹" : "s⁻¹"}
+              <br />
+              data: {rate.data ? `${formatWithUncertainty(rate.data.rate * (perMinute ? 60 : 1), rate.data.se * (perMinute ? 60 : 1))} (${rate.data.points} points)` : "too few points near this time"}
+            </p>
+          )}
         </fieldset>
         <fieldset className="rounded-cell bg-paper-raised p-4 shadow-lift">
           <legend className="px-1 text-sm font-semibold">Excluded points ({exclusions.length})</legend>
@@ -334,6 +417,30 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
         )}
       </aside>
 
+      <Dialog open={pendingMany !== null} onClose={() => setPendingMany(null)} title={`Exclude ${pendingMany?.length ?? 0} selected points`}>
+        <form
+          onSubmit={(e) => {
+            e.preventDefault();
+            if (!pendingMany || reason.trim().length < 3) return;
+            const add = pendingMany.filter((i) => !excludedSet.has(i)).map((index) => ({ index, reason: reason.trim() }));
+            setExclusions([...exclusions, ...add].sort((a, b) => a.index - b.index));
+            setPendingMany(null);
+            setSelected([]);
+          }}
+          className="space-y-4"
+        >
+          <p className="text-sm">Each point stays in the record, greyed, with this reason.</p>
+          <Input label="Reason for all of them (required)" value={reason} onChange={(e) => setReason(e.target.value)} autoFocus minLength={3} required />
+          <div className="flex justify-end gap-2">
+            <Button variant="secondary" onClick={() => setPendingMany(null)}>
+              Cancel
+            </Button>
+            <Button type="submit" disabled={reason.trim().length < 3}>
+              Exclude
+            </Button>
+          </div>
+        </form>
+      </Dialog>
       <Dialog open={pending !== null} onClose={() => setPending(null)} title={pending !== null ? `Exclude point ${pending + 1}` : "Exclude a point"}>
         <form
           onSubmit={(e) => {

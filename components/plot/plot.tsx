@@ -19,12 +19,14 @@ export function Plot({
   height = 320,
   label,
   onClick,
+  onSelected,
 }: {
   data: PlotParams["data"];
   layout?: PlotParams["layout"];
   height?: number;
   label: string;
   onClick?: PlotParams["onClick"];
+  onSelected?: PlotParams["onSelected"];
 }) {
   return (
     <figure aria-label={label} className="w-full" style={{ height }}>
@@ -42,8 +44,9 @@ export function Plot({
           yaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.yaxis },
           ...layout,
         }}
-        config={{ displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d", "select2d"] }}
+        config={{ displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d"] }}
         onClick={onClick}
+        onSelected={onSelected}
         useResizeHandler
         style={{ width: "100%", height: "100%" }}
       />

@@ -249,7 +249,22 @@ function FileCard({ item, onMapping, onSave, onTimeColumn }: { item: Item; onMap
                         <input value={c.name ?? s.name} onChange={(e) => setChannel({ name: e.target.value })} aria-label={`Name for ${s.name}`} className="h-8 w-full max-w-xs rounded-cell border border-ink-300 px-2" />
                       </td>
                       <td>
-                        {s.quantity === "transmittance-converted absorbance" ? "absorbance (from %T)" : s.quantity} ({s.unit})
+                        <select
+                          aria-label={`Quantity of ${s.name}`}
+                          value={c.quantity ?? (s.quantity === "transmittance-converted absorbance" ? "absorbance" : s.quantity)}
+                          onChange={(e) => setChannel({ quantity: e.target.value as "absorbance" | "concentration" | "signal" })}
+                          className="h-8 rounded-cell border border-ink-300 px-1"
+                        >
+                          <option value="absorbance">{s.quantity === "transmittance-converted absorbance" ? "absorbance (from %T)" : "absorbance"}</option>
+                          <option value="concentration">concentration</option>
+                          <option value="signal">other signal</option>
+                        </select>{" "}
+                        <input
+                          aria-label={`Unit of ${s.name}`}
+                          value={c.unit ?? s.unit}
+                          onChange={(e) => setChannel({ unit: e.target.value || undefined })}
+                          className="h-8 w-20 rounded-cell border border-ink-300 px-2"
+                        />
                       </td>
                       <td className="num text-right font-mono">{s.points}</td>
                       <td className="num text-right font-mono">{s.skipped_lines.length}</td>

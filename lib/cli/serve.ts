@@ -3,7 +3,8 @@ import { spawn } from "node:child_process";
 import path from "node:path";
 
 const port = process.env.PORT ?? "3000";
-const env = { ...process.env, PORT: port, NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}` };
+// No telemetry: the app makes no network request of its own.
+const env = { ...process.env, PORT: port, NEXT_TELEMETRY_DISABLED: "1", NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}` };
 const nextBin = path.resolve("node_modules", "next", "dist", "bin", "next");
 const child = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env });
 console.log(`Halflight on http://localhost:${port}`);

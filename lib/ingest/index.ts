@@ -91,6 +91,8 @@ export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, 
 interface StoredSeries {
   source: string;
   name: string;
+  quantity: string;
+  unit: string;
   series: ParsedSeries;
   processing: Record<string, unknown>;
   t: number[];
@@ -114,10 +116,14 @@ export function applyMapping(parsed: ParsedExport, mapping: RunMapping, fileName
   const chosen = parsed.series.filter((s) => s !== blank && (mapping.channels?.find((c) => c.source === s.name)?.include ?? true));
   if (chosen.length === 0) throw new AppError({ code: "unprocessable", message: `${fileName}: no channel is left to store (all were left out${blank ? " or used as the blank" : ""}).` });
   return chosen.map((s) => {
-    const name = mapping.channels?.find((c) => c.source === s.name)?.name ?? s.name;
+    const c = mapping.channels?.find((x) => x.source === s.name);
+    const name = c?.name ?? s.name;
     const processing: Record<string, unknown> = {};
     if (s.quantity === "transmittance-converted absorbance") processing.converted = "A = 2 − log10(%T)";
-    if (!blank) return { source: s.name, name, series: s, processing, t: s.t, y: s.y };
+    if (c?.quantity && c.quantity !== s.quantity) processing.quantity_set_by_analyst = { read_as: s.quantity, set_to: c.quantity };
+    const quantity = c?.quantity ?? s.quantity;
+    const unit = c?.unit ?? (c?.quantity && c.quantity !== "absorbance" && s.unit === "AU" ? "" : s.unit);
+    if (!blank) return { source: s.name, name, quantity, unit, series: s, processing, t: s.t, y: s.y };
     const t: number[] = [],
       y: number[] = [];
     let unmatched = 0;
@@ -131,7 +137,7 @@ export function applyMapping(parsed: ParsedExport, mapping: RunMapping, fileName
     });
     processing.blank_subtracted = blank.name;
     if (unmatched) processing.blank_unmatched_points = unmatched;
-    return { source: s.name, name, series: s, processing, t, y };
+    return { source: s.name, name, quantity, unit, series: s, processing, t, y };
   });
 }
 
@@ -200,8 +206,8 @@ export async function ingestExport(
         position,
         name: s.name,
         source_column: s.source,
-        quantity: s.series.quantity,
-        unit: s.series.unit,
+        quantity: s.quantity,
+        unit: s.unit,
         point_count: s.t.length,
         t_f64: packF64(s.t),
         y_f64: packF64(s.y),

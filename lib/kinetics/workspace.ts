@@ -2,7 +2,8 @@
 // Beer–Lambert conversion. The fitting page (in the browser) and the fit records (on the server) both call this, so a
 // saved record is the same computation the analyst saw.
 import { akaikeWeights } from "./diagnostics";
-import { fitKinetics } from "./fit";
+import { fitKinetics, FitSpecError } from "./fit";
+import { failedFit } from "./nls";
 import { BUILT_IN_MODELS } from "./models";
 import { beerLambertConcentration, halfLife, t90 } from "./quantities";
 import type { FitResult } from "./types";
@@ -71,14 +72,21 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
     const params = model === "formula" ? null : model === "linearized" ? ["k", "a0", "ainf"] : model === "guggenheim" ? ["k", "amplitude"] : model === "kezdy-swinbourne" ? ["k", "ainf"] : (BUILT_IN_MODELS[model]?.params ?? []);
     const fixed = Object.fromEntries(Object.entries(o.fixed ?? {}).filter(([k]) => params === null || params.includes(k)));
     const starts = Object.fromEntries(Object.entries(o.starts ?? {}).filter(([k]) => params === null || params.includes(k)));
-    const r = fitKinetics(tt, yy, {
-      model: model === "formula" ? undefined : model,
-      formula: model === "formula" ? (o.formula ?? "") : undefined,
-      fixed,
-      start: Object.keys(starts).length ? starts : undefined,
-      interval: o.interval ?? undefined,
-      logWeights: o.logWeights,
-    });
+    let r: FitResult;
+    try {
+      r = fitKinetics(tt, yy, {
+        model: model === "formula" ? undefined : model,
+        formula: model === "formula" ? (o.formula ?? "") : undefined,
+        fixed,
+        start: Object.keys(starts).length ? starts : undefined,
+        interval: o.interval ?? undefined,
+        logWeights: o.logWeights,
+      });
+    } catch (e) {
+      // A formula that cannot be read is a failed fit of that model, said in its message, not a failed page.
+      if (!(e instanceof FitSpecError)) throw e;
+      r = failedFit(model, [], tt.length, `No fit: ${e.message}`);
+    }
     const { residuals, fitted, ...rest } = r;
     const linearLike = model === "linearized" || model === "guggenheim" || model === "kezdy-swinbourne";
     curves[model] = { t: linearLike ? Float64Array.from([]) : tt, fitted, residuals };

@@ -9,6 +9,9 @@ export const channelMappingSchema = z.object({
   source: z.string(),
   include: z.boolean().default(true),
   name: z.string().trim().min(1).max(200).optional(),
+  /** What the readings are, where the file did not say or said it wrongly (recorded with the series). */
+  quantity: z.enum(["absorbance", "concentration", "signal"]).optional(),
+  unit: z.string().trim().min(1).max(32).optional(),
 });
 
 export const runMappingSchema = z.object({

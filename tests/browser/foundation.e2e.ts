@@ -39,7 +39,8 @@ describe("each demo role", () => {
       if (hidden) {
         const res = await page.goto(`${baseURL}${hidden.href}`);
         expect(res?.status()).toBe(403);
-        await expect(page.getByRole("heading", { name: "Not open to your role" }).isVisible()).resolves.toBe(true);
+        // The 403 page may stream in after the status line: wait for it rather than look once.
+        await page.getByRole("heading", { name: "Not open to your role" }).waitFor();
       }
     });
   }

@@ -60,7 +60,7 @@ describe("upload, preview, map, save", () => {
     expect(seen.length).toBeGreaterThan(0);
 
     const semi = page.getByRole("article", { name: `File ${FILES[0]}` });
-    await expect(semi.getByText("Time (s);Abs").isVisible()).resolves.toBe(true);
+    await semi.getByText("Time (s);Abs").waitFor();
     await expect(semi.getByLabel("Wavelength (nm)").inputValue()).resolves.toBe("590");
     await expect(semi.getByLabel("Temperature (°C)").inputValue()).resolves.toBe("24.6");
     await semi.getByLabel("Run name").fill("Crystal violet, semicolon export");
@@ -84,8 +84,8 @@ describe("upload, preview, map, save", () => {
     await page.getByRole("link", { name: /Crystal violet, semicolon export/ }).click();
     await page.getByRole("heading", { name: "Crystal violet, semicolon export" }).waitFor();
     await page.locator(".js-plotly-plot .main-svg").first().waitFor();
-    await expect(page.getByText("24.6 °C").isVisible()).resolves.toBe(true);
-    await expect(page.getByText(/SHA-256 [0-9a-f]{64}/).isVisible()).resolves.toBe(true);
+    await page.getByText("24.6 °C").waitFor();
+    await page.getByText(/SHA-256 [0-9a-f]{64}/).waitFor();
     await page.screenshot({ path: path.join(artifacts, "run-page.png"), fullPage: true });
   });
 

@@ -191,3 +191,19 @@ describe("refused input over HTTP: a clear message, the line, a 4xx, nothing wri
     expect(r.status).toBe(403);
   });
 });
+
+describe("mapping the quantity", () => {
+  it("the analyst may say what a channel holds; the change is recorded with the series", async () => {
+    const text = "Time (min),Reading\n0,12.0\n1,10.1\n2,8.6\n";
+    const r = await ingestExport(db, {
+      labId: analyst.labId,
+      userId: analyst.userId,
+      bytes: new TextEncoder().encode(text),
+      fileName: "conc.csv",
+      mapping: { channels: [{ source: "Reading", include: true, quantity: "concentration", unit: "µmol/L" }], run: {} },
+    });
+    const { row } = await readSeries(db, analyst.labId, r.run_id, r.series[0]!.id);
+    expect(row).toMatchObject({ quantity: "concentration", unit: "µmol/L" });
+    expect(JSON.parse(row.processing)).toMatchObject({ quantity_set_by_analyst: { read_as: "absorbance", set_to: "concentration" } });
+  });
+});

@@ -230,3 +230,17 @@ describe("long series", () => {
     }
   });
 });
+
+describe("the series workspace", () => {
+  it("applies window and exclusions, compares models, and turns an unreadable formula into a failed model", async () => {
+    const { fitSeriesWithOptions } = await import("@/lib/kinetics");
+    const out = fitSeriesWithOptions(t, decay, { models: ["first-order", "zero-order", "formula"], formula: "b1*(", window: { from: 40 }, exclusions: [{ index: 5, reason: "spike" }] });
+    expect(out.n).toBe(t.length - 2 - 1);
+    expect(out.included[0]).toBe(false);
+    expect(out.included[5]).toBe(false);
+    expect(out.models[2]!.result.converged).toBe(false);
+    expect(out.models[2]!.result.message).toMatch(/cannot be read/);
+    expect(out.favoured?.model).toBe("first-order");
+    expect(out.models[0]!.halfLife!.value).toBeCloseTo(Math.LN2 / 0.004, 6);
+  });
+});

@@ -1,0 +1,23 @@
+// Re-fits off the main thread, so the page never freezes: the series arrives once, then each message carries options.
+import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
+
+type Message = { type: "data"; t: Float64Array; y: Float64Array } | { type: "fit"; id: number; options: SeriesFitOptions };
+
+let t: Float64Array = new Float64Array(0);
+let y: Float64Array = new Float64Array(0);
+
+self.onmessage = (e: MessageEvent<Message>) => {
+  const m = e.data;
+  if (m.type === "data") {
+    t = m.t;
+    y = m.y;
+    return;
+  }
+  const started = performance.now();
+  try {
+    const outcome = fitSeriesWithOptions(t, y, m.options);
+    postMessage({ id: m.id, outcome, ms: performance.now() - started });
+  } catch (err) {
+    postMessage({ id: m.id, error: err instanceof Error ? err.message : String(err) });
+  }
+};
