@@ -81,7 +81,7 @@ export function RunsTable({ canUpload }: { canUpload: boolean }) {
                 {COLUMNS.map((c) => (
                   <Th key={c.label} numeric={c.numeric} aria-sort={c.key === sort ? (dir === "asc" ? "ascending" : "descending") : undefined}>
                     {c.key ? (
-                      <button type="button" onClick={() => toggle(c.key!)} className="inline-flex items-center gap-1 uppercase hover:text-quartz-700">
+                      <button type="button" onClick={() => toggle(c.key!)} className="inline-flex items-center gap-1 hover:text-quartz-700">
                         {c.label}
                         <span aria-hidden="true">{c.key === sort ? (dir === "asc" ? "▲" : "▼") : ""}</span>
                       </button>

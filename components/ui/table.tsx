@@ -18,7 +18,7 @@ export function Th({ numeric, className, ...rest }: ThHTMLAttributes<HTMLTableCe
     <th
       scope="col"
       className={cn(
-        "border-b border-ink-100 bg-paper-sunk px-3 py-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-700",
+        "border-b border-ink-100 bg-paper-sunk px-3 py-2 text-left text-sm font-semibold text-ink-700",
         numeric && "text-right",
         className,
       )}
@@ -30,7 +30,7 @@ export function Th({ numeric, className, ...rest }: ThHTMLAttributes<HTMLTableCe
 export function Td({ numeric, className, ...rest }: TdHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
   return (
     <td
-      className={cn("border-b border-ink-100 px-3 py-2 align-top", numeric && "num text-right font-mono", className)}
+      className={cn("border-b border-ink-100 px-3 py-2 align-top", numeric && "num whitespace-nowrap text-right font-mono", className)}
       {...rest}
     />
   );

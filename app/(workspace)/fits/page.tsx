@@ -43,7 +43,7 @@ export default async function FitsPage({ searchParams }: { searchParams: Promise
             <tr>
               {SORTS.map(([key, label]) => (
                 <Th key={key} numeric={key === "k_value" || key === "version"}>
-                  <Link href={link({ sort: key, dir: q.sort === key && q.dir === "desc" ? "asc" : "desc" })} className="uppercase hover:text-quartz-700">
+                  <Link href={link({ sort: key, dir: q.sort === key && q.dir === "desc" ? "asc" : "desc" })} className="hover:text-quartz-700">
                     {label} {q.sort === key ? (q.dir === "asc" ? "▲" : "▼") : ""}
                   </Link>
                 </Th>

@@ -33,7 +33,7 @@ export default async function AuditPage() {
           <tbody>
             {events.map((e) => (
               <tr key={e.id}>
-                <Td numeric className="whitespace-nowrap text-left">
+                <Td className="num whitespace-nowrap font-mono">
                   {e.at.replace("T", " ").slice(0, 19)}
                 </Td>
                 <Td>{e.actorLabel ?? (e.actorUserId ? `user #${e.actorUserId}` : "—")}</Td>
