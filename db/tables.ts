@@ -117,6 +117,24 @@ export interface DbFitRow {
   created_at: string;
 }
 
+export interface DbStudyRow {
+  id: number;
+  lab_id: number;
+  record_id: number | null;
+  version: number;
+  previous_id: number | null;
+  name: string;
+  kind: string;
+  members: string;
+  options: string;
+  results: string;
+  engine_version: string;
+  content_hash: string;
+  reason: string | null;
+  author_id: number | null;
+  created_at: string;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -127,5 +145,6 @@ declare module "knex/types/tables" {
     runs: DbRunRow;
     series: DbSeriesRow;
     fits: DbFitRow;
+    studies: DbStudyRow;
   }
 }

@@ -4,9 +4,11 @@ import type { Knex } from "knex";
 import * as foundation from "./20261202030000_foundation";
 import * as runs from "./20261202040000_runs";
 import * as fits from "./20261202050000_fits";
+import * as studies from "./20261202060000_studies";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
   { name: "20261202040000_runs", ...runs },
   { name: "20261202050000_fits", ...fits },
+  { name: "20261202060000_studies", ...studies },
 ];

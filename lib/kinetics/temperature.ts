@@ -164,3 +164,23 @@ export function meanKineticTemperature(intervals: ReadonlyArray<{ temperatureK: 
 export function eyringFrequency(temperatureK: number): number {
   return (BOLTZMANN_KB * temperatureK) / PLANCK_H;
 }
+
+/** The Arrhenius straight line itself (ln k on 1/T, weighted as in `arrhenius`), for bands and residual plots. */
+export function arrheniusLine(points: readonly RatePoint[]) {
+  checkPoints(points);
+  const weighted = points.every((p) => p.se != null);
+  return fitLine(
+    points.map((p) => 1 / p.temperatureK),
+    points.map((p) => Math.log(p.k)),
+    weighted ? { weights: points.map((p) => (p.k / p.se!) ** 2) } : {},
+  );
+}
+
+/** The line's 95 % confidence band on ln k at the given temperatures (K). */
+export function arrheniusBand(points: readonly RatePoint[], temperaturesK: readonly number[]): Array<{ temperatureK: number; lnK: number; low: number; high: number }> {
+  const line = arrheniusLine(points);
+  return temperaturesK.map((T) => {
+    const p = predictLine(line, 1 / T);
+    return { temperatureK: T, lnK: p.value, low: p.value - line.tCrit * p.seMean, high: p.value + line.tCrit * p.seMean };
+  });
+}

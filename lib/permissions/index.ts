@@ -18,6 +18,7 @@ export const PERMISSIONS = {
   "run:upload": [A, M],
   "fit:write": [A, M],
   "fit:submit": [A, M],
+  "study:write": [A, M],
   // Method development.
   "method:write": [M],
   "calibration:write": [M],

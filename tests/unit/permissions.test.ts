@@ -10,6 +10,7 @@ const EXPECTED: Record<Permission, Role[]> = {
   "run:upload": ["analyst", "method_developer"],
   "fit:write": ["analyst", "method_developer"],
   "fit:submit": ["analyst", "method_developer"],
+  "study:write": ["analyst", "method_developer"],
   "method:write": ["method_developer"],
   "calibration:write": ["method_developer"],
   "model:custom": ["method_developer"],

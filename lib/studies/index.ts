@@ -1,0 +1,233 @@
+// Studies: rate constants from saved fit versions, grouped across temperatures (Arrhenius, Eyring, Q10, predictions)
+// or across excess concentrations (k_obs → k2). Stored as immutable versions with a content hash, like fits.
+import { createHash } from "node:crypto";
+import type { Knex } from "knex";
+import { fitsForStudy, getStudy, insertStudyVersion, listLatestStudies, listStudyVersions } from "@/db/queries/studies";
+import { recordAudit } from "@/lib/audit";
+import type { SignedInUser } from "@/lib/auth/sign-in";
+import { AppError } from "@/lib/errors";
+import { canonicalJson, csvCell } from "@/lib/fits";
+import {
+  arrhenius,
+  arrheniusBand,
+  arrheniusLine,
+  celsiusToKelvin,
+  ENGINE_VERSION,
+  halfLife,
+  KELVIN_OFFSET,
+  predictRateConstant,
+  q10,
+  secondOrderFromObserved,
+  t90,
+  TemperatureDataError,
+  type RatePoint,
+} from "@/lib/kinetics";
+import type { ChangeStudy, CreateStudy, StudyMember } from "@/lib/schemas/studies";
+
+export const PREDICTION_CAUTION =
+  "Predictions are estimates for qualified review, not release or shelf-life decisions; local regulations and the lab's SOPs govern shelf-life claims.";
+
+export interface ResolvedMember extends StudyMember {
+  fit_title: string;
+  fit_version: number;
+  run_id: number;
+  run_name: string;
+  series_name: string;
+  run_temperature_c: number | null;
+  k: number;
+  se: number | null;
+  temperature_used_c: number | null;
+}
+
+async function resolveMembers(db: Knex, labId: number, members: StudyMember[]): Promise<ResolvedMember[]> {
+  const rows = await fitsForStudy(db, labId, members.map((m) => m.fitId));
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  return members.map((m) => {
+    const f = byId.get(m.fitId);
+    if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${m.fitId} in this lab.` });
+    if (f.k_value === null) throw new AppError({ code: "unprocessable", message: `Fit ${f.title} (v${f.version}) has no rate constant to use.` });
+    const overridden = m.temperature_c !== undefined && m.temperature_c !== null && m.temperature_c !== f.temperature_c;
+    if (overridden && !m.temperature_reason)
+      throw new AppError({ code: "unprocessable", message: `Say why ${f.run_name} is at ${m.temperature_c} °C and not the ${f.temperature_c ?? "unrecorded"} °C of its run (a reason is required).` });
+    return {
+      fitId: m.fitId,
+      ...(overridden ? { temperature_c: m.temperature_c, temperature_reason: m.temperature_reason } : {}),
+      ...(m.excess_mol_l ? { excess_mol_l: m.excess_mol_l } : {}),
+      fit_title: f.title,
+      fit_version: f.version,
+      run_id: f.run_id,
+      run_name: f.run_name,
+      series_name: f.series_name,
+      run_temperature_c: f.temperature_c,
+      k: f.k_value,
+      se: f.k_se,
+      temperature_used_c: overridden ? m.temperature_c! : f.temperature_c,
+    };
+  });
+}
+
+export function computeStudy(kind: "temperature" | "excess", members: ResolvedMember[], options: { weighted: boolean; target_c?: number | null }) {
+  if (kind === "excess") {
+    const pts = members.map((m) => {
+      if (!m.excess_mol_l) throw new AppError({ code: "unprocessable", message: `${m.run_name}: give the excess reagent's concentration.` });
+      return { x: m.excess_mol_l, k: m.k };
+    });
+    const r = secondOrderFromObserved(pts.map((p) => p.x), pts.map((p) => p.k));
+    return { kind, n: pts.length, k2: { value: r.k2, se: r.se, unit: "L/(mol s)" }, intercept: { value: r.intercept, se: r.seIntercept, unit: "1/s" }, r2: r.fit.r2 };
+  }
+  const missing = members.find((m) => m.temperature_used_c === null);
+  if (missing) throw new AppError({ code: "unprocessable", message: `${missing.run_name} has no temperature: give one (with a reason).` });
+  const points: RatePoint[] = members.map((m) => ({ temperatureK: celsiusToKelvin(m.temperature_used_c!), k: m.k, se: options.weighted ? m.se : null }));
+  try {
+    const a = arrhenius(points);
+    const sorted = [...points].sort((x, y) => x.temperatureK - y.temperatureK);
+    const q10s = sorted.slice(1).map((p, i) => ({ from_c: sorted[i]!.temperatureK - KELVIN_OFFSET, to_c: p.temperatureK - KELVIN_OFFSET, q10: q10(sorted[i]!, p) }));
+    let band: ReturnType<typeof arrheniusBand> = [];
+    let residuals: Array<{ temperature_c: number; residual: number }> = [];
+    if (points.length >= 3) {
+      const lo = sorted[0]!.temperatureK - 5,
+        hi = sorted.at(-1)!.temperatureK + 5;
+      band = arrheniusBand(points, Array.from({ length: 41 }, (_, i) => lo + ((hi - lo) * i) / 40));
+      const line = arrheniusLine(points);
+      residuals = points.map((p, i) => ({ temperature_c: p.temperatureK - KELVIN_OFFSET, residual: line.residuals[i]! }));
+    }
+    let prediction = null;
+    if (options.target_c !== undefined && options.target_c !== null && points.length >= 3) {
+      const pr = predictRateConstant(points, celsiusToKelvin(options.target_c));
+      const lo = Math.min(...points.map((p) => p.temperatureK)) - KELVIN_OFFSET;
+      const hi = Math.max(...points.map((p) => p.temperatureK)) - KELVIN_OFFSET;
+      const distance = options.target_c < lo ? lo - options.target_c : options.target_c > hi ? options.target_c - hi : 0;
+      prediction = {
+        target_c: options.target_c,
+        k: pr.k,
+        k_pi95: pr.pi95,
+        k_ci95: pr.ci95,
+        half_life_s: halfLife(pr.k).value,
+        t90_s: t90(pr.k).value,
+        t90_pi95_s: [t90(pr.pi95[1]).value, t90(pr.pi95[0]).value] as [number, number],
+        extrapolated: pr.extrapolated,
+        extrapolation_c: distance,
+        warning: pr.warning,
+        caution: PREDICTION_CAUTION,
+      };
+    }
+    return { kind, ...a, q10: q10s, band, residuals, prediction, weighting: a.weighted ? "by (k / SE(k))²" : "none" };
+  } catch (e) {
+    if (e instanceof TemperatureDataError) throw new AppError({ code: "unprocessable", message: e.message });
+    throw e;
+  }
+}
+
+async function storeVersion(
+  db: Knex,
+  user: SignedInUser,
+  input: { name: string; kind: "temperature" | "excess"; members: StudyMember[]; options: { weighted: boolean; target_c?: number | null }; previous?: { id: number; record_id: number; version: number } | null; reason?: string | null },
+) {
+  const resolved = await resolveMembers(db, user.labId, input.members);
+  const results = computeStudy(input.kind, resolved, input.options);
+  const contentHash = createHash("sha256").update(canonicalJson({ members: resolved, options: input.options, results, engine: ENGINE_VERSION })).digest("hex");
+  return db.transaction(async (trx) => {
+    const version = input.previous ? input.previous.version + 1 : 1;
+    const id = await insertStudyVersion(trx, {
+      lab_id: user.labId,
+      record_id: input.previous ? input.previous.record_id : null,
+      version,
+      previous_id: input.previous?.id ?? null,
+      name: input.name,
+      kind: input.kind,
+      members: JSON.stringify(resolved),
+      options: canonicalJson(input.options),
+      results: JSON.stringify(results),
+      engine_version: ENGINE_VERSION,
+      content_hash: contentHash,
+      reason: input.reason ?? null,
+      author_id: user.userId,
+      created_at: new Date().toISOString(),
+    });
+    const recordId = input.previous ? input.previous.record_id : id;
+    await recordAudit(trx, {
+      labId: user.labId,
+      actorUserId: user.userId,
+      action: input.previous ? "study.version_saved" : "study.created",
+      objectType: "study",
+      objectId: recordId,
+      objectVersion: version,
+      newValues: { name: input.name, members: input.members, options: input.options, content_hash: contentHash },
+      reason: input.reason ?? null,
+    });
+    return { id, record_id: recordId, version, content_hash: contentHash };
+  });
+}
+
+export async function createStudy(db: Knex, user: SignedInUser, input: CreateStudy) {
+  return storeVersion(db, user, { name: input.name, kind: input.kind, members: input.members, options: input.options });
+}
+
+export async function changeStudy(db: Knex, user: SignedInUser, id: number, change: ChangeStudy) {
+  const cur = await getStudy(db, user.labId, id);
+  if (!cur) throw new AppError({ code: "not_found", message: `There is no study ${id} in this lab.` });
+  const versions = await listStudyVersions(db, user.labId, cur.record_id!);
+  if (versions.at(-1)!.id !== cur.id) throw new AppError({ code: "conflict", message: `Version ${cur.version} is not the newest; open version ${versions.at(-1)!.version}.` });
+  const members =
+    change.members ??
+    (JSON.parse(cur.members) as ResolvedMember[]).map(({ fitId, temperature_c, temperature_reason, excess_mol_l }) => ({ fitId, temperature_c, temperature_reason, excess_mol_l }));
+  return storeVersion(db, user, {
+    name: change.name ?? cur.name,
+    kind: cur.kind as "temperature" | "excess",
+    members,
+    options: change.options ?? JSON.parse(cur.options),
+    previous: { id: cur.id, record_id: cur.record_id!, version: cur.version },
+    reason: change.reason,
+  });
+}
+
+export type StudyResults = ReturnType<typeof computeStudy>;
+
+export async function getStudyRecord(db: Knex, labId: number, id: number) {
+  const s = await getStudy(db, labId, id);
+  if (!s) throw new AppError({ code: "not_found", message: `There is no study ${id} in this lab.` });
+  const versions = await listStudyVersions(db, labId, s.record_id!);
+  return {
+    id: s.id,
+    record_id: s.record_id!,
+    version: s.version,
+    name: s.name,
+    kind: s.kind as "temperature" | "excess",
+    members: JSON.parse(s.members) as ResolvedMember[],
+    options: JSON.parse(s.options) as { weighted: boolean; target_c?: number | null },
+    results: JSON.parse(s.results) as StudyResults,
+    engine_version: s.engine_version,
+    content_hash: s.content_hash,
+    reason: s.reason,
+    author: s.author_name,
+    created_at: s.created_at,
+    versions: versions.map((v) => ({ id: v.id, version: v.version, reason: v.reason, author: v.author_name, created_at: v.created_at })),
+    newest_id: versions.at(-1)!.id,
+  };
+}
+export type StudyRecord = Awaited<ReturnType<typeof getStudyRecord>>;
+
+export async function listStudies(db: Knex, labId: number) {
+  return (await listLatestStudies(db, labId)).map((s) => {
+    const r = JSON.parse(s.results) as { ea?: { value: number; se: number | null }; k2?: { value: number; se: number } };
+    return { id: s.id, record_id: s.record_id, version: s.version, name: s.name, kind: s.kind, members: (JSON.parse(s.members) as unknown[]).length, ea: r.ea ?? null, k2: r.k2 ?? null, created_at: s.created_at, author: s.author_name };
+  });
+}
+
+export async function studyCsv(db: Knex, labId: number, id: number) {
+  const s = await getStudyRecord(db, labId, id);
+  const lines = [
+    `# ${csvCell(s.name)} v${s.version}; engine ${s.engine_version}; content hash ${s.content_hash}`,
+    "fit,fit_version,run,series,temperature_c,temperature_reason,k_per_s,se_k_per_s",
+    ...s.members.map((m) => [m.fit_title, m.fit_version, m.run_name, m.series_name, m.temperature_used_c, m.temperature_reason ?? "", m.k, m.se].map(csvCell).join(",")),
+  ];
+  const r = s.results as { ea?: { value: number; se: number | null; ci95?: [number, number] | null }; lnA?: { value: number; se: number | null }; eyring?: { dH: { value: number; se: number | null }; dS: { value: number; se: number | null } } };
+  if (r.ea) {
+    lines.push("", "result,value,se,ci95_low,ci95_high,unit");
+    lines.push(["Ea", r.ea.value, r.ea.se, r.ea.ci95?.[0], r.ea.ci95?.[1], "J/mol"].map(csvCell).join(","));
+    lines.push(["lnA", r.lnA?.value, r.lnA?.se, "", "", "ln(1/s)"].map(csvCell).join(","));
+    lines.push(["dH", r.eyring?.dH.value, r.eyring?.dH.se, "", "", "J/mol"].map(csvCell).join(","));
+    lines.push(["dS", r.eyring?.dS.value, r.eyring?.dS.se, "", "", "J/(mol K)"].map(csvCell).join(","));
+  }
+  return { name: `study-${s.record_id}-v${s.version}.csv`, text: lines.join("\n") + "\n" };
+}
