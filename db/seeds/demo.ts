@@ -8,6 +8,7 @@ import { insertLab, countLabs } from "@/db/queries/labs";
 import { listMembershipsOfUser } from "@/db/queries/users";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { saveFit } from "@/lib/fits";
+import { createStudy } from "@/lib/studies";
 import { ingestExport } from "@/lib/ingest";
 import { demoFiles } from "./demo-files";
 import { insertMembership, insertUser } from "@/db/queries/users";
@@ -60,6 +61,7 @@ async function seedDemoRuns(db: Knex): Promise<void> {
   fs.mkdirSync(DEMO_FILES_DIR, { recursive: true });
   const memberships = await listMembershipsOfUser(db, analyst!.id);
   const asAnalyst: SignedInUser = { userId: analyst!.id, email: analyst!.email, name: analyst!.display_name, labId: lab!.id, labSlug: lab!.slug, labName: lab!.name, role: memberships[0]!.role };
+  const studyFits: number[] = [];
   for (const f of demoFiles()) {
     const file = path.join(DEMO_FILES_DIR, f.name);
     if (!fs.existsSync(file)) fs.writeFileSync(file, f.text);
@@ -72,6 +74,13 @@ async function seedDemoRuns(db: Knex): Promise<void> {
     });
     // A saved fit on each run's first channel, made through the same path as the fitting page.
     const s0 = stored.series[0]!;
-    await saveFit(db, asAnalyst, { runId: stored.run_id, seriesId: s0.id, title: `${f.name.replace(/\.[^.]+$/, "")} · ${s0.name}`, options: { models: ["linearized", "first-order"] } });
+    const fit = await saveFit(db, asAnalyst, { runId: stored.run_id, seriesId: s0.id, title: `${f.name.replace(/\.[^.]+$/, "")} · ${s0.name}`, options: { models: ["linearized", "first-order"] } });
+    if (!f.name.includes("drift")) studyFits.push(fit.id);
   }
+  await createStudy(db, asAnalyst, {
+    name: "Corvane blue, pH 11: Arrhenius (demo)",
+    kind: "temperature",
+    members: studyFits.map((fitId) => ({ fitId })),
+    options: { weighted: true, target_c: 5 },
+  });
 }

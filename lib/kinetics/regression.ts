@@ -99,10 +99,14 @@ export function fitLine(xIn: ArrayLike<number>, yIn: ArrayLike<number>, opts: Li
   };
 }
 
-/** The line's value at x0 with the standard errors of the mean response and of a new observation (weight 1). */
-export function predictLine(fit: LineFit, x0: number): { value: number; seMean: number; sePrediction: number } {
+/**
+ * The line's value at x0 with the standard errors of the mean response and of a new observation. A new observation
+ * is given the data's mean weight unless `newWeight` says otherwise (for an unweighted fit that weight is 1): with
+ * weights like (k/SE)², "weight 1" would be a wildly noisier observation than any in the data.
+ */
+export function predictLine(fit: LineFit, x0: number, newWeight = fit.sumW / fit.n): { value: number; seMean: number; sePrediction: number } {
   const s2 = fit.absoluteSigma ? 1 : fit.ssr / fit.dof;
   const d = x0 - fit.xMean;
   const varMean = s2 * ((fit.seIntercept === null ? 0 : 1 / fit.sumW) + (d * d) / fit.sxx);
-  return { value: fit.intercept + fit.slope * x0, seMean: Math.sqrt(varMean), sePrediction: Math.sqrt(varMean + s2) };
+  return { value: fit.intercept + fit.slope * x0, seMean: Math.sqrt(varMean), sePrediction: Math.sqrt(varMean + s2 / newWeight) };
 }

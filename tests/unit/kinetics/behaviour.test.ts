@@ -244,3 +244,24 @@ describe("the series workspace", () => {
     expect(out.models[0]!.halfLife!.value).toBeCloseTo(Math.LN2 / 0.004, 6);
   });
 });
+
+describe("prediction intervals", () => {
+  it("for an unweighted line: t·s·sqrt(1 + 1/n + d²/Sxx), the textbook formula", async () => {
+    const { fitLine, predictLine } = await import("@/lib/kinetics");
+    const x = [1, 2, 3, 4, 5, 6];
+    const y = [2.1, 3.9, 6.2, 7.8, 10.1, 12.2];
+    const f = fitLine(x, y);
+    const s = f.residualSd;
+    const sxx = x.reduce((a, v) => a + (v - 3.5) ** 2, 0);
+    expect(predictLine(f, 8).sePrediction).toBeCloseTo(s * Math.sqrt(1 + 1 / 6 + (8 - 3.5) ** 2 / sxx), 12);
+  });
+  it("for a weighted line, a new observation has the data's mean weight (scaling all weights changes nothing)", async () => {
+    const { fitLine, predictLine } = await import("@/lib/kinetics");
+    const x = [1, 2, 3, 4, 5];
+    const y = [1.1, 1.9, 3.2, 3.9, 5.1];
+    const w = [1, 2, 1, 3, 2];
+    const a = predictLine(fitLine(x, y, { weights: w }), 6);
+    const b = predictLine(fitLine(x, y, { weights: w.map((v) => v * 1e4) }), 6);
+    expect(b.sePrediction).toBeCloseTo(a.sePrediction, 12);
+  });
+});

@@ -1,0 +1,288 @@
+"use client";
+// A study: the Arrhenius and Eyring plots, the results with uncertainties, predictions at a temperature (with their
+// cautions), and the members, whose temperatures may be corrected with a reason (a new version).
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useMemo, useState } from "react";
+import { Plot } from "@/components/plot/plot";
+import { Button } from "@/components/ui/button";
+import { Input } from "@/components/ui/field";
+import { useToast } from "@/components/ui/toast";
+import { formatNumber, formatSeconds, formatWithUncertainty, superscript } from "@/lib/format/number";
+import { KELVIN_OFFSET } from "@/lib/kinetics/constants";
+import { halfLife, t90 } from "@/lib/kinetics/quantities";
+import { celsiusToKelvin, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
+import type { StudyRecord } from "@/lib/studies";
+
+type TempResults = {
+  n: number;
+  method: string;
+  weighted: boolean;
+  ea: { value: number; se: number | null; ci95?: [number, number] | null };
+  lnA: { value: number; se: number | null };
+  corrEaLnA: number | null;
+  r2: number | null;
+  eyring: { dH: { value: number; se: number | null }; dS: { value: number; se: number | null } };
+  q10: Array<{ from_c: number; to_c: number; q10: number }>;
+  band: Array<{ temperatureK: number; lnK: number; low: number; high: number }>;
+  residuals: Array<{ temperature_c: number; residual: number }>;
+  warnings: string[];
+  weighting: string;
+};
+
+const kj = (v: number | null | undefined) => (v == null ? null : v / 1000);
+
+export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; canWrite: boolean; demoNote: boolean }) {
+  const router = useRouter();
+  const toast = useToast();
+  const isNewest = study.newest_id === study.id;
+  const [temps, setTemps] = useState<Record<number, string>>({});
+  const [reasons, setReasons] = useState<Record<number, string>>({});
+  const [why, setWhy] = useState("");
+  const [target, setTarget] = useState<string>(String(study.options.target_c ?? 25));
+  const [busy, setBusy] = useState(false);
+  const prediction = useMemo(() => {
+    if (study.kind !== "temperature") return null;
+    const weighted = (study.results as unknown as { weighted: boolean }).weighted;
+    const points: RatePoint[] = study.members.map((m) => ({ temperatureK: celsiusToKelvin(m.temperature_used_c!), k: m.k, se: weighted ? m.se : null }));
+    const c = Number(target.replace(",", "."));
+    if (!target.trim() || !Number.isFinite(c) || points.length < 3) return null;
+    try {
+      const p = predictRateConstant(points, celsiusToKelvin(c));
+      return { c, ...p, t90: t90(p.k).value, t90pi: [t90(p.pi95[1]).value, t90(p.pi95[0]).value], half: halfLife(p.k).value };
+    } catch {
+      return null;
+    }
+  }, [target, study]);
+
+  if (study.kind === "excess") {
+    const r = study.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number };
+    return (
+      <div>
+        <h1 className="text-2xl font-semibold">{study.name}</h1>
+        <p className="num mt-4 font-mono text-2xl">k2 = {formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹</p>
+        <p className="text-sm text-ink-500">Intercept {formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ (a solvent or reverse path); r² {r.r2.toFixed(5)}.</p>
+      </div>
+    );
+  }
+  const r = study.results as unknown as TempResults;
+  const members = study.members.map((m) => ({ ...m, T: celsiusToKelvin(m.temperature_used_c!) }));
+  const x = (T: number) => 1000 / T;
+
+  async function saveChange() {
+    setBusy(true);
+    const body = {
+      reason: why,
+      options: { ...study.options, target_c: Number(target) },
+      members: study.members.map((m) => {
+        const t = temps[m.fitId];
+        const changed = t !== undefined && t.trim() !== "" && Number(t) !== m.temperature_used_c;
+        return {
+          fitId: m.fitId,
+          ...(changed ? { temperature_c: Number(t.replace(",", ".")), temperature_reason: reasons[m.fitId] } : m.temperature_reason ? { temperature_c: m.temperature_c, temperature_reason: m.temperature_reason } : {}),
+        };
+      }),
+    };
+    const res = await fetch(`/api/studies/${study.id}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+    const out = await res.json();
+    setBusy(false);
+    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    toast(`Saved as version ${out.version}.`, "pass");
+    router.push(`/studies/${out.id}`);
+  }
+
+  const lnk = members.map((m) => Math.log(m.k));
+  const err = members.map((m) => (m.se ? m.se / m.k : 0));
+  return (
+    <div className="space-y-6">
+      <header className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h1 className="text-2xl font-semibold tracking-tight">{study.name}</h1>
+          <p className="text-sm text-ink-500">
+            Version {study.version} of {study.versions.length} · {r.n} temperatures · weighting {r.weighting} · {study.engine_version}
+          </p>
+          {demoNote && <p className="mt-1 text-sm text-ink-500">Demo lab: these invented runs were generated with Ea = 82 kJ mol⁻¹, so the study shows the method recovering a known value.</p>}
+        </div>
+        <a href={`/api/studies/${study.id}/export`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold">
+          Study CSV
+        </a>
+      </header>
+      {!isNewest && (
+        <p className="rounded-cell bg-caution-100 px-4 py-2 text-sm text-caution-700">
+          Not the newest version. <Link className="font-semibold underline" href={`/studies/${study.newest_id}`}>Open the newest</Link>.
+        </p>
+      )}
+      <section className="grid gap-4 rounded-cell bg-paper-raised p-5 shadow-lift md:grid-cols-3" aria-label="Results">
+        <div>
+          <p className="text-sm text-ink-500">Activation energy</p>
+          <p className="num font-mono text-2xl" data-testid="study-ea">
+            Ea = {formatWithUncertainty(kj(r.ea.value), kj(r.ea.se))} kJ mol⁻¹
+          </p>
+          {r.ea.ci95 && <p className="text-sm">95 % CI {formatNumber(kj(r.ea.ci95[0]), 4)} … {formatNumber(kj(r.ea.ci95[1]), 4)} kJ mol⁻¹</p>}
+          <p className="text-sm">
+            ln A = {formatWithUncertainty(r.lnA.value, r.lnA.se)} (A = {formatNumber(Math.exp(r.lnA.value), 3)} s{superscript(-1)})
+          </p>
+          {r.corrEaLnA !== null && <p className="text-xs text-ink-500">Correlation of Ea and ln A: {r.corrEaLnA.toFixed(4)}; quote them together.</p>}
+        </div>
+        <div>
+          <p className="text-sm text-ink-500">Eyring (transmission coefficient 1)</p>
+          <p className="num font-mono">ΔH‡ = {formatWithUncertainty(kj(r.eyring.dH.value), kj(r.eyring.dH.se))} kJ mol⁻¹</p>
+          <p className="num font-mono">ΔS‡ = {formatWithUncertainty(r.eyring.dS.value, r.eyring.dS.se)} J mol⁻¹ K⁻¹</p>
+          <p className="mt-2 text-sm text-ink-500">r² of the Arrhenius line {r.r2 === null ? "—" : r.r2.toFixed(5)}</p>
+        </div>
+        <div>
+          <p className="text-sm text-ink-500">Q10 between neighbouring temperatures</p>
+          <ul className="num font-mono text-sm">
+            {r.q10.map((q) => (
+              <li key={`${q.from_c}-${q.to_c}`}>
+                {q.from_c.toFixed(1)} → {q.to_c.toFixed(1)} °C: {q.q10.toFixed(3)}
+              </li>
+            ))}
+          </ul>
+        </div>
+        {r.warnings.map((w) => (
+          <p key={w} className="rounded-cell bg-caution-100 px-3 py-2 text-sm text-caution-700 md:col-span-3">
+            {w}
+          </p>
+        ))}
+      </section>
+      <section className="grid gap-4 lg:grid-cols-2">
+        <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
+          <h2 className="mb-1 text-sm font-semibold">Arrhenius plot</h2>
+          <Plot
+            label="Arrhenius plot: ln k against 1000/T"
+            height={300}
+            data={[
+              { type: "scatter", mode: "lines", name: "95 % band", x: r.band.map((b) => x(b.temperatureK)), y: r.band.map((b) => b.high), line: { width: 0 }, showlegend: false, hoverinfo: "skip" },
+              { type: "scatter", mode: "lines", name: "95 % confidence band", x: r.band.map((b) => x(b.temperatureK)), y: r.band.map((b) => b.low), fill: "tonexty", fillcolor: "rgba(26,138,148,0.18)", line: { width: 0 } },
+              { type: "scatter", mode: "lines", name: "weighted line", x: r.band.map((b) => x(b.temperatureK)), y: r.band.map((b) => b.lnK), line: { color: "#0f5c63" } },
+              { type: "scatter", mode: "markers", name: "ln k ± SE", x: members.map((m) => x(m.T)), y: lnk, error_y: { type: "data", array: err, visible: true }, marker: { size: 8, color: "#2b50c8" } },
+            ] as never}
+            layout={{ xaxis: { title: { text: "1000 / T (K⁻¹)" } }, yaxis: { title: { text: "ln (k / s⁻¹)" } } } as never}
+          />
+        </div>
+        <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
+          <h2 className="mb-1 text-sm font-semibold">Eyring plot</h2>
+          <Plot
+            label="Eyring plot: ln(k/T) against 1000/T"
+            height={300}
+            data={[
+              { type: "scatter", mode: "markers", name: "ln(k/T)", x: members.map((m) => x(m.T)), y: members.map((m) => Math.log(m.k / m.T)), marker: { size: 8, color: "#7b2d8e" } },
+              {
+                type: "scatter",
+                mode: "lines",
+                name: "line",
+                x: [x(Math.max(...members.map((m) => m.T))), x(Math.min(...members.map((m) => m.T)))],
+                y: [Math.max(...members.map((m) => m.T)), Math.min(...members.map((m) => m.T))].map((T) => Math.log(1.380649e-23 / 6.62607015e-34) + r.eyring.dS.value / 8.314462618 - r.eyring.dH.value / (8.314462618 * T)),
+                line: { color: "#d55e00" },
+              },
+            ] as never}
+            layout={{ xaxis: { title: { text: "1000 / T (K⁻¹)" } }, yaxis: { title: { text: "ln (k/T)" } } } as never}
+          />
+        </div>
+      </section>
+      <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Prediction">
+        <h2 className="mb-3 text-lg font-semibold">Prediction at a temperature</h2>
+        <div className="flex flex-wrap items-end gap-4">
+          <div className="w-48">
+            <Input label="Target temperature (°C)" inputMode="decimal" value={target} onChange={(e) => setTarget(e.target.value)} />
+          </div>
+          {prediction && (
+            <div className="num font-mono text-sm" data-testid="prediction">
+              <p>
+                k = {formatNumber(prediction.k, 4)} s⁻¹ (95 % prediction interval {formatNumber(prediction.pi95[0], 3)} … {formatNumber(prediction.pi95[1], 3)})
+              </p>
+              <p>
+                t½ = {formatSeconds(prediction.half)} · t90 = {formatSeconds(prediction.t90)} (95 % PI {formatSeconds(prediction.t90pi[0])} … {formatSeconds(prediction.t90pi[1])})
+              </p>
+            </div>
+          )}
+        </div>
+        {prediction?.warning && (
+          <p className="mt-3 rounded-cell border-l-4 border-caution-700 bg-caution-100 px-3 py-2 text-sm text-caution-700" data-testid="extrapolation">
+            {prediction.warning}
+          </p>
+        )}
+        <p className="mt-3 text-sm text-ink-700" data-testid="caution">
+          Caution: predictions are estimates for qualified review, not release or shelf-life decisions; local regulations and the lab&apos;s SOPs govern shelf-life
+          claims.
+        </p>
+      </section>
+      <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Members">
+        <h2 className="mb-3 text-lg font-semibold">Members</h2>
+        <table className="w-full text-sm [&_td]:px-2 [&_th]:px-2">
+          <thead>
+            <tr className="text-left text-ink-500">
+              <th className="py-1">Fit</th>
+              <th>Run</th>
+              <th className="text-right">k (s⁻¹)</th>
+              <th className="text-right">Residual (ln k)</th>
+              <th>Temperature (°C)</th>
+              <th>Reason for a changed temperature</th>
+            </tr>
+          </thead>
+          <tbody>
+            {study.members.map((m, i) => (
+              <tr key={m.fitId} className="border-t border-ink-100 align-top">
+                <td className="py-1.5">
+                  <Link className="text-quartz-700 hover:underline" href={`/fits/${m.fitId}`}>
+                    {m.fit_title}
+                  </Link>{" "}
+                  <span className="text-ink-500">v{m.fit_version}</span>
+                </td>
+                <td>{m.run_name}</td>
+                <td className="num text-right font-mono">{formatWithUncertainty(m.k, m.se)}</td>
+                <td className="num text-right font-mono">{r.residuals[i] ? formatNumber(r.residuals[i]!.residual, 3) : "—"}</td>
+                <td>
+                  {canWrite && isNewest ? (
+                    <input
+                      aria-label={`Temperature of ${m.run_name}`}
+                      className="h-8 w-24 rounded-cell border border-ink-300 px-2"
+                      value={temps[m.fitId] ?? String(m.temperature_used_c)}
+                      onChange={(e) => setTemps({ ...temps, [m.fitId]: e.target.value })}
+                    />
+                  ) : (
+                    m.temperature_used_c
+                  )}
+                  {m.temperature_reason && <span className="block text-xs text-ink-500">run says {m.run_temperature_c ?? "nothing"} °C</span>}
+                </td>
+                <td>
+                  {canWrite && isNewest && temps[m.fitId] !== undefined && Number(temps[m.fitId]) !== m.temperature_used_c ? (
+                    <input aria-label={`Why ${m.run_name} is at this temperature`} className="h-8 w-full rounded-cell border border-ink-300 px-2" value={reasons[m.fitId] ?? ""} onChange={(e) => setReasons({ ...reasons, [m.fitId]: e.target.value })} />
+                  ) : (
+                    <span className="text-ink-500">{m.temperature_reason ?? ""}</span>
+                  )}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {canWrite && isNewest && (
+          <div className="mt-4 flex flex-wrap items-end gap-3">
+            <div className="w-96">
+              <Input label="Why this new version (required)" value={why} onChange={(e) => setWhy(e.target.value)} />
+            </div>
+            <Button onClick={saveChange} disabled={busy || why.trim().length < 3} data-testid="save-study">
+              Save version {study.version + 1}
+            </Button>
+          </div>
+        )}
+      </section>
+      <section aria-label="Versions">
+        <h2 className="mb-2 text-lg font-semibold">Versions</h2>
+        <ol className="space-y-1 text-sm" data-testid="study-versions">
+          {study.versions.map((v) => (
+            <li key={v.id}>
+              <Link className="font-semibold text-quartz-700 hover:underline" href={`/studies/${v.id}`}>
+                Version {v.version}
+              </Link>{" "}
+              · {v.created_at.slice(0, 16).replace("T", " ")} UTC · {v.author ?? "—"}
+              {v.reason ? ` · ${v.reason}` : ""}
+            </li>
+          ))}
+        </ol>
+      </section>
+      <p className="text-xs text-ink-500">Temperatures in kelvin are °C + {KELVIN_OFFSET}; R = 8.314462618 J mol⁻¹ K⁻¹ and kB/h exact (SI 2019).</p>
+    </div>
+  );
+}

@@ -1,0 +1,55 @@
+// A temperature study as a stability chemist builds one: from the demo fits, see Ea with its CI and both plots, predict
+// t90 at 25 °C with the caution, correct one member's temperature with a reason and get a new version.
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { BrowserContext, Page } from "playwright-core";
+import { DEMO_USERS } from "@/db/seeds/demo";
+import { openBrowser, signIn } from "./chromium";
+
+const baseURL = inject("baseURL");
+const artifacts = inject("artifacts");
+let context: BrowserContext;
+let close: () => Promise<void>;
+let page: Page;
+
+beforeAll(async () => {
+  ({ context, close } = await openBrowser());
+  page = await context.newPage();
+  const u = DEMO_USERS.find((x) => x.role === "method_developer")!;
+  await signIn(page, baseURL, u.email, u.password);
+  await page.getByTestId("workspace-nav").waitFor();
+});
+afterAll(async () => {
+  await close();
+});
+
+describe("temperature study", () => {
+  it("builds a study from the demo fits, predicts t90 at 25 °C, and versions a corrected temperature", async () => {
+    await page.goto(`${baseURL}/studies`);
+    await page.getByLabel("Study name").fill("Four temperatures, built in the browser");
+    for (const c of ["25C ·", "30C ·", "40C ·", "50C ·"]) await page.getByRole("checkbox", { name: new RegExp(`corvane-blue-${c}`) }).check();
+    await page.getByTestId("create-study").click();
+    await page.waitForURL(/\/studies\/\d+$/);
+    const ea = page.getByTestId("study-ea");
+    await ea.waitFor();
+    await expect(ea.textContent()).resolves.toMatch(/Ea = \d+(\.\d+)? ± \d+(\.\d+)? kJ mol⁻¹/);
+    await page.getByText(/95 % CI .* kJ mol⁻¹/).waitFor();
+    await page.getByRole("figure", { name: /Arrhenius plot/ }).locator(".main-svg").first().waitFor();
+    await page.getByRole("figure", { name: /Eyring plot/ }).locator(".main-svg").first().waitFor();
+
+    await page.getByLabel("Target temperature (°C)").fill("25");
+    await expect(page.getByTestId("prediction").textContent()).resolves.toMatch(/t90 = .*\(95 % PI/);
+    await expect(page.getByTestId("caution").textContent()).resolves.toMatch(/qualified review.*local regulations/);
+    await page.getByLabel("Target temperature (°C)").fill("5");
+    await expect(page.getByTestId("extrapolation").textContent()).resolves.toMatch(/outside the measured 25\.0–50\.0 °C/);
+    await page.screenshot({ path: path.join(artifacts, "study.png"), fullPage: true });
+
+    await page.getByLabel("Temperature of corvane-blue-30C").fill("30.6");
+    await page.getByLabel("Why corvane-blue-30C is at this temperature").fill("block probe calibrated: 30.6 °C");
+    await page.getByLabel("Why this new version (required)").fill("temperature correction from the calibration certificate");
+    await page.getByTestId("save-study").click();
+    await page.getByText("Version 2 of 2").waitFor();
+    await expect(page.getByTestId("study-versions").textContent()).resolves.toMatch(/Version 2.*temperature correction from the calibration certificate/s);
+    await page.getByText("block probe calibrated: 30.6 °C").waitFor();
+  });
+});
