@@ -41,6 +41,9 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
   const [why, setWhy] = useState("");
   const [target, setTarget] = useState<string>(String(study.options.target_c ?? 25));
   const [busy, setBusy] = useState(false);
+  const [name, setName] = useState(study.name);
+  const [removed, setRemoved] = useState<number[]>([]);
+  const [added, setAdded] = useState<string>("");
   const prediction = useMemo(() => {
     if (study.kind !== "temperature") return null;
     const weighted = (study.results as unknown as { weighted: boolean }).weighted;
@@ -71,17 +74,19 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
 
   async function saveChange() {
     setBusy(true);
+    const addId = Number(added);
     const body = {
       reason: why,
+      name,
       options: { ...study.options, target_c: Number(target) },
-      members: study.members.map((m) => {
+      members: [...study.members.filter((m) => !removed.includes(m.fitId)).map((m) => {
         const t = temps[m.fitId];
         const changed = t !== undefined && t.trim() !== "" && Number(t) !== m.temperature_used_c;
         return {
           fitId: m.fitId,
           ...(changed ? { temperature_c: Number(t.replace(",", ".")), temperature_reason: reasons[m.fitId] } : m.temperature_reason ? { temperature_c: m.temperature_c, temperature_reason: m.temperature_reason } : {}),
         };
-      }),
+      }), ...(Number.isInteger(addId) && addId > 0 ? [{ fitId: addId }] : [])],
     };
     const res = await fetch(`/api/studies/${study.id}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
     const out = await res.json();
@@ -219,6 +224,7 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
               <th className="text-right">Residual (ln k)</th>
               <th>Temperature (°C)</th>
               <th>Reason for a changed temperature</th>
+              {canWrite && isNewest && <th>Leave out</th>}
             </tr>
           </thead>
           <tbody>
@@ -253,12 +259,23 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
                     <span className="text-ink-500">{m.temperature_reason ?? ""}</span>
                   )}
                 </td>
+                {canWrite && isNewest && (
+                  <td>
+                    <input type="checkbox" aria-label={`Leave ${m.run_name} out`} checked={removed.includes(m.fitId)} onChange={(e) => setRemoved(e.target.checked ? [...removed, m.fitId] : removed.filter((x) => x !== m.fitId))} />
+                  </td>
+                )}
               </tr>
             ))}
           </tbody>
         </table>
         {canWrite && isNewest && (
           <div className="mt-4 flex flex-wrap items-end gap-3">
+            <div className="w-72">
+              <Input label="Study name" value={name} onChange={(e) => setName(e.target.value)} />
+            </div>
+            <div className="w-40">
+              <Input label="Add a fit (its number)" inputMode="numeric" value={added} onChange={(e) => setAdded(e.target.value)} hint="From the Fits list." />
+            </div>
             <div className="w-96">
               <Input label="Why this new version (required)" value={why} onChange={(e) => setWhy(e.target.value)} />
             </div>
