@@ -135,6 +135,41 @@ export interface DbStudyRow {
   created_at: string;
 }
 
+export interface DbSignatureRow {
+  id: number;
+  lab_id: number;
+  object_type: string;
+  object_id: number;
+  user_id: number;
+  printed_name: string;
+  meaning: "authored" | "reviewed" | "approved";
+  content_hash: string;
+  signed_at: string;
+}
+
+export interface DbReviewEventRow {
+  id: number;
+  lab_id: number;
+  object_type: string;
+  object_id: number;
+  state: "submitted" | "approved" | "rejected" | "withdrawn";
+  actor_id: number;
+  signature_id: number | null;
+  reason: string | null;
+  at: string;
+}
+
+export interface DbCommentRow {
+  id: number;
+  lab_id: number;
+  object_type: string;
+  object_id: number;
+  parent_id: number | null;
+  author_id: number;
+  body: string;
+  created_at: string;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -146,5 +181,8 @@ declare module "knex/types/tables" {
     series: DbSeriesRow;
     fits: DbFitRow;
     studies: DbStudyRow;
+    signatures: DbSignatureRow;
+    review_events: DbReviewEventRow;
+    comments: DbCommentRow;
   }
 }

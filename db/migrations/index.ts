@@ -5,10 +5,12 @@ import * as foundation from "./20261202030000_foundation";
 import * as runs from "./20261202040000_runs";
 import * as fits from "./20261202050000_fits";
 import * as studies from "./20261202060000_studies";
+import * as reviews from "./20261202070000_reviews";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
   { name: "20261202040000_runs", ...runs },
   { name: "20261202050000_fits", ...fits },
   { name: "20261202060000_studies", ...studies },
+  { name: "20261202070000_reviews", ...reviews },
 ];

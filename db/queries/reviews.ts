@@ -1,0 +1,54 @@
+// Signatures, review events and comments on record versions.
+import type { Db } from "@/db";
+import type { DbCommentRow, DbReviewEventRow, DbSignatureRow } from "@/db/tables";
+
+const idOf = (r: unknown) => (typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r));
+
+export async function insertSignature(db: Db, row: Omit<DbSignatureRow, "id">): Promise<number> {
+  const [r] = await db("signatures").insert(row).returning("id");
+  return idOf(r);
+}
+
+export async function insertReviewEvent(db: Db, row: Omit<DbReviewEventRow, "id">): Promise<number> {
+  const [r] = await db("review_events").insert(row).returning("id");
+  return idOf(r);
+}
+
+export async function insertComment(db: Db, row: Omit<DbCommentRow, "id">): Promise<number> {
+  const [r] = await db("comments").insert(row).returning("id");
+  return idOf(r);
+}
+
+export async function reviewEventsOf(db: Db, labId: number, objectType: string, objectId: number) {
+  return db("review_events as e")
+    .join("users as u", "u.id", "e.actor_id")
+    .where({ "e.lab_id": labId, "e.object_type": objectType, "e.object_id": objectId })
+    .orderBy("e.id")
+    .select("e.*", "u.display_name as actor_name");
+}
+
+export async function signaturesOf(db: Db, labId: number, objectType: string, objectId: number): Promise<DbSignatureRow[]> {
+  return db("signatures").where({ lab_id: labId, object_type: objectType, object_id: objectId }).orderBy("id");
+}
+
+export async function commentsOf(db: Db, labId: number, objectType: string, objectIds: number[]) {
+  return db("comments as c")
+    .join("users as u", "u.id", "c.author_id")
+    .where({ "c.lab_id": labId, "c.object_type": objectType })
+    .whereIn("c.object_id", objectIds)
+    .orderBy("c.id")
+    .select("c.*", "u.display_name as author_name");
+}
+
+/** Fit versions whose latest review event is "submitted", oldest first. */
+export async function submittedFits(db: Db, labId: number) {
+  const latest = db("review_events").where({ lab_id: labId, object_type: "fit" }).groupBy("object_id").max({ id: "id" });
+  return db("review_events as e")
+    .whereIn("e.id", latest)
+    .andWhere("e.state", "submitted")
+    .join("fits as f", "f.id", "e.object_id")
+    .join("users as u", "u.id", "e.actor_id")
+    .join("runs as r", "r.id", "f.run_id")
+    .orderBy("e.at", "asc")
+    .select("f.id", "f.title", "f.version", "f.k_value", "f.k_se", "f.author_id", "r.name as run_name", "e.at as submitted_at", "u.display_name as submitted_by");
+}

@@ -1,0 +1,130 @@
+// Review and sign-off of fit record versions: draft → submitted → approved | rejected (reason required), withdrawal
+// with a reason, electronic signatures that re-ask the password and bind to the version's content hash (21 CFR 11.50,
+// 11.70, 11.200), comments, and the reviewer's queue. Every act is audited in its own transaction.
+import type { Knex } from "knex";
+import { getFit, latestVersion } from "@/db/queries/fits";
+import { commentsOf, insertComment, insertReviewEvent, insertSignature, reviewEventsOf, signaturesOf, submittedFits } from "@/db/queries/reviews";
+import { findUserById } from "@/db/queries/users";
+import { recordAudit } from "@/lib/audit";
+import { verifyPassword } from "@/lib/auth/password";
+import type { SignedInUser } from "@/lib/auth/sign-in";
+import { AppError } from "@/lib/errors";
+import { can, canReview } from "@/lib/permissions";
+
+export type Meaning = "authored" | "reviewed" | "approved";
+export type ReviewState = "draft" | "submitted" | "approved" | "rejected" | "withdrawn";
+
+async function fitVersionOrThrow(db: Knex, labId: number, id: number) {
+  const f = await getFit(db, labId, id);
+  if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${id} in this lab.` });
+  return f;
+}
+
+export async function reviewStatus(db: Knex, labId: number, fitId: number) {
+  const f = await fitVersionOrThrow(db, labId, fitId);
+  const events = await reviewEventsOf(db, labId, "fit", fitId);
+  const signatures = await signaturesOf(db, labId, "fit", fitId);
+  const newest = await latestVersion(db, labId, f.record_id!);
+  const last = events.at(-1);
+  const state: ReviewState = last ? (last.state as ReviewState) : "draft";
+  return {
+    fit_id: fitId,
+    version: f.version,
+    author_id: f.author_id,
+    state,
+    superseded_by: newest && newest.id !== f.id ? { id: newest.id, version: newest.version } : null,
+    events: events.map((e) => ({ state: e.state, actor: e.actor_name as string, reason: e.reason, at: e.at })),
+    signatures: signatures.map((s) => ({
+      id: s.id,
+      printed_name: s.printed_name,
+      meaning: s.meaning,
+      signed_at: s.signed_at,
+      content_hash: s.content_hash,
+      // A signature binds one exact version: if its hash no longer matches, it is void.
+      void: s.content_hash !== f.content_hash,
+    })),
+  };
+}
+export type ReviewStatus = Awaited<ReturnType<typeof reviewStatus>>;
+
+async function checkPassword(db: Knex, user: SignedInUser, password: string, act: string, fitId: number) {
+  const row = await findUserById(db, user.userId);
+  if (!row || !(await verifyPassword(password, row.password_hash))) {
+    await recordAudit(db, { labId: user.labId, actorUserId: user.userId, action: "signature.refused", objectType: "fit", objectId: fitId, reason: `wrong password when signing: ${act}` });
+    throw new AppError({ code: "unauthorized", message: "The password is not right: the signature was not made." });
+  }
+}
+
+async function sign(trx: Knex.Transaction, user: SignedInUser, fit: { id: number; content_hash: string }, meaning: Meaning, at: string) {
+  return insertSignature(trx, { lab_id: user.labId, object_type: "fit", object_id: fit.id, user_id: user.userId, printed_name: user.name, meaning, content_hash: fit.content_hash, signed_at: at });
+}
+
+export async function submitFit(db: Knex, user: SignedInUser, fitId: number, password: string) {
+  if (!can(user, "fit:submit")) throw new AppError({ code: "forbidden", message: "Your role does not submit records for review." });
+  const f = await fitVersionOrThrow(db, user.labId, fitId);
+  const status = await reviewStatus(db, user.labId, fitId);
+  if (status.superseded_by) throw new AppError({ code: "conflict", message: `Version ${f.version} has been superseded by version ${status.superseded_by.version}; submit the newest.` });
+  if (status.state === "submitted" || status.state === "approved") throw new AppError({ code: "conflict", message: `This version is already ${status.state}.` });
+  if (status.state === "rejected") throw new AppError({ code: "conflict", message: "A rejected version stays rejected: change the fit (a new version) and submit that." });
+  await checkPassword(db, user, password, "submit", fitId);
+  const at = new Date().toISOString();
+  return db.transaction(async (trx) => {
+    const sig = await sign(trx, user, f, "authored", at);
+    await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: "submitted", actor_id: user.userId, signature_id: sig, reason: null, at });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "fit.submitted", objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: status.state }, newValues: { state: "submitted", signature: { meaning: "authored", content_hash: f.content_hash } } });
+    return { state: "submitted" as const, signature_id: sig };
+  });
+}
+
+export async function decideFit(db: Knex, user: SignedInUser, fitId: number, input: { decision: "approved" | "rejected"; password: string; meaning?: Meaning; reason?: string }) {
+  if (!can(user, "review:decide")) throw new AppError({ code: "forbidden", message: "Only reviewers approve or reject records." });
+  const f = await fitVersionOrThrow(db, user.labId, fitId);
+  if (!canReview(user, { authorId: f.author_id ?? -1 })) throw new AppError({ code: "forbidden", message: "You authored this record: someone else must review it." });
+  const status = await reviewStatus(db, user.labId, fitId);
+  if (status.state !== "submitted") throw new AppError({ code: "conflict", message: `Only a submitted version can be approved or rejected; this one is ${status.state}.` });
+  if (input.decision === "rejected" && !input.reason?.trim()) throw new AppError({ code: "unprocessable", message: "Say why the record is rejected (a reason is required).", issues: [{ path: "reason", message: "Required to reject." }] });
+  await checkPassword(db, user, input.password, input.decision, fitId);
+  const meaning: Meaning = input.meaning ?? (input.decision === "approved" ? "approved" : "reviewed");
+  const at = new Date().toISOString();
+  return db.transaction(async (trx) => {
+    const sig = await sign(trx, user, f, meaning, at);
+    await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: input.decision, actor_id: user.userId, signature_id: sig, reason: input.reason ?? null, at });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: `fit.${input.decision}`, objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: "submitted" }, newValues: { state: input.decision, signature: { meaning, content_hash: f.content_hash } }, reason: input.reason ?? null });
+    return { state: input.decision, signature_id: sig };
+  });
+}
+
+export async function withdrawFit(db: Knex, user: SignedInUser, fitId: number, reason: string) {
+  const f = await fitVersionOrThrow(db, user.labId, fitId);
+  if (f.author_id !== user.userId) throw new AppError({ code: "forbidden", message: "Only the author withdraws a submission." });
+  const status = await reviewStatus(db, user.labId, fitId);
+  if (status.state !== "submitted") throw new AppError({ code: "conflict", message: `Only a submitted version can be withdrawn; this one is ${status.state}.` });
+  if (!reason.trim()) throw new AppError({ code: "unprocessable", message: "Say why the submission is withdrawn." });
+  const at = new Date().toISOString();
+  return db.transaction(async (trx) => {
+    await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: "withdrawn", actor_id: user.userId, signature_id: null, reason, at });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "fit.withdrawn", objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: "submitted" }, newValues: { state: "withdrawn" }, reason });
+    return { state: "withdrawn" as const };
+  });
+}
+
+export async function addComment(db: Knex, user: SignedInUser, fitId: number, body: string, parentId?: number) {
+  const f = await fitVersionOrThrow(db, user.labId, fitId);
+  const mayComment = can(user, "review:comment") || f.author_id === user.userId || can(user, "fit:write");
+  if (!mayComment) throw new AppError({ code: "forbidden", message: "Your role does not comment on records." });
+  return db.transaction(async (trx) => {
+    const id = await insertComment(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, parent_id: parentId ?? null, author_id: user.userId, body, created_at: new Date().toISOString() });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "comment.added", objectType: "fit", objectId: f.record_id, objectVersion: f.version, newValues: { comment_id: id, parent_id: parentId ?? null, body } });
+    return { id };
+  });
+}
+
+export async function listComments(db: Knex, labId: number, fitId: number) {
+  await fitVersionOrThrow(db, labId, fitId);
+  const rows = await commentsOf(db, labId, "fit", [fitId]);
+  return rows.map((c) => ({ id: c.id, parent_id: c.parent_id, author: c.author_name as string, body: c.body, created_at: c.created_at }));
+}
+
+export async function reviewQueue(db: Knex, labId: number, now = new Date()) {
+  return (await submittedFits(db, labId)).map((r) => ({ ...r, age_hours: (now.getTime() - Date.parse(r.submitted_at)) / 3.6e6 }));
+}
