@@ -41,17 +41,20 @@ export interface FitListFilter {
 /** The newest version of each record. */
 export async function listLatestFits(db: Db, f: FitListFilter) {
   const latest = db("fits").where("lab_id", f.labId).groupBy("record_id").max({ id: "id" });
+  const lastEvent = db("review_events").where({ lab_id: f.labId, object_type: "fit" }).groupBy("object_id").select("object_id").max({ id: "id" }).as("le");
   const q = db("fits as f")
     .whereIn("f.id", latest)
     .join("runs as r", "r.id", "f.run_id")
     .join("series as s", "s.id", "f.series_id")
-    .leftJoin("users as u", "u.id", "f.author_id");
+    .leftJoin("users as u", "u.id", "f.author_id")
+    .leftJoin(lastEvent, "le.object_id", "f.id")
+    .leftJoin("review_events as ev", "ev.id", "le.id");
   if (f.runId) q.andWhere("f.run_id", f.runId);
   if (f.q) q.andWhere((w) => w.whereLike("f.title", `%${f.q}%`).orWhereLike("r.name", `%${f.q}%`));
   const total = await q.clone().count<{ n: number | string }[]>({ n: "*" }).first();
   const rows = await q
     .clone()
-    .select("f.id", "f.record_id", "f.version", "f.title", "f.primary_model", "f.k_value", "f.k_se", "f.state", "f.created_at", "f.run_id", "f.series_id", "r.name as run_name", "s.name as series_name", "u.display_name as author_name", "r.temperature_c")
+    .select("f.id", "f.record_id", "f.version", "f.title", "f.primary_model", "f.k_value", "f.k_se", "f.state", "f.created_at", "f.run_id", "f.series_id", "r.name as run_name", "s.name as series_name", "u.display_name as author_name", "r.temperature_c", "ev.state as review_state")
     .orderBy(`f.${f.sort}`, f.dir)
     .limit(f.limit)
     .offset(f.offset);

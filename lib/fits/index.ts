@@ -121,6 +121,7 @@ function view(row: NonNullable<Awaited<ReturnType<typeof getFit>>>) {
     content_hash: row.content_hash,
     reason: row.reason,
     author: row.author_name,
+    author_id: row.author_id,
     created_at: row.created_at,
   };
 }

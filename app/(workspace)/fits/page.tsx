@@ -63,7 +63,7 @@ export default async function FitsPage({ searchParams }: { searchParams: Promise
                 <Td className="whitespace-nowrap">{String(f.created_at).slice(0, 16).replace("T", " ")} UTC</Td>
                 <Td><Link className="hover:underline" href={`/runs/${f.run_id}`}>{f.run_name}</Link> · {f.series_name}{f.temperature_c != null ? ` · ${f.temperature_c} °C` : ""}</Td>
                 <Td>{f.primary_model}</Td>
-                <Td><Badge tone="neutral">{f.state}</Badge></Td>
+                <Td><Badge tone={f.review_state === "approved" ? "pass" : f.review_state === "rejected" ? "fault" : f.review_state === "submitted" ? "accent" : "neutral"}>{f.review_state ?? "draft"}</Badge></Td>
                 <Td>{f.author_name ?? "—"}</Td>
               </tr>
             ))}

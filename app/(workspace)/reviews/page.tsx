@@ -1,13 +1,55 @@
 import type { Metadata } from "next";
-import { AreaPlaceholder } from "@/components/shell/area-placeholder";
+import Link from "next/link";
+import { PageHeader } from "@/components/shell/page-header";
+import { EmptyState } from "@/components/ui/empty-state";
+import { Table, Td, Th } from "@/components/ui/table";
+import { getDb } from "@/db";
 import { requirePageUser } from "@/lib/auth/page";
-import { AREAS } from "@/lib/navigation";
+import { formatWithUncertainty } from "@/lib/format/number";
+import { reviewQueue } from "@/lib/reviews";
 
 export const metadata: Metadata = { title: "Review queue" };
 
-const area = AREAS.find((a) => a.href === "/reviews")!;
-
-export default async function Page() {
-  await requirePageUser("review:read", "/reviews");
-  return <AreaPlaceholder title={area.label} purpose={area.purpose} missing="submitting records, comments and signed approvals." />;
+export default async function ReviewQueuePage() {
+  const user = await requirePageUser("review:read", "/reviews");
+  const queue = await reviewQueue(await getDb(), user.labId);
+  return (
+    <>
+      <PageHeader title="Review queue" lede="Record versions submitted for review, oldest first. You never review your own work." />
+      {queue.length === 0 ? (
+        <EmptyState title="Nothing is waiting">Submitted fit records appear here until a reviewer approves or rejects them.</EmptyState>
+      ) : (
+        <Table caption="Records awaiting review">
+          <thead>
+            <tr>
+              <Th>Record</Th>
+              <Th>Run</Th>
+              <Th numeric>k (s⁻¹)</Th>
+              <Th>Submitted by</Th>
+              <Th numeric>Waiting</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {queue.map((q) => (
+              <tr key={q.id}>
+                <Td>
+                  <Link className="font-semibold text-quartz-700 hover:underline" href={`/fits/${q.id}`}>
+                    {q.title}
+                  </Link>{" "}
+                  v{q.version}
+                  {q.author_id === user.userId && <span className="ml-2 text-xs text-ink-500">(yours: someone else must review it)</span>}
+                </Td>
+                <Td>{q.run_name}</Td>
+                <Td numeric>{formatWithUncertainty(q.k_value, q.k_se)}</Td>
+                <Td>
+                  {q.submitted_by}, {String(q.submitted_at).slice(0, 16).replace("T", " ")} UTC
+                </Td>
+                <Td numeric>{q.age_hours < 48 ? `${q.age_hours.toFixed(1)} h` : `${(q.age_hours / 24).toFixed(1)} d`}</Td>
+              </tr>
+            ))}
+          </tbody>
+        </Table>
+      )}
+    </>
+  );
 }

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { ReviewPanel } from "@/components/reviews/review-panel";
 import { PageHeader } from "@/components/shell/page-header";
 import { Badge } from "@/components/ui/badge";
 import { Table, Td, Th } from "@/components/ui/table";
@@ -57,7 +58,7 @@ export default async function FitRecordPage({ params }: { params: Promise<{ id: 
         </p>
         {k !== null && <p className="num mt-1 font-mono text-sm text-ink-700">= {formatWithUncertainty(k * 60, rec.primary.k_se === null ? null : rec.primary.k_se * 60)} min{superscript(-1)}</p>}
         <p className="mt-3 text-xs text-ink-500">
-          {rec.engine_version} · content hash <span className="font-mono">{rec.content_hash.slice(0, 16)}…</span> · data SHA-256 <span className="font-mono">{rec.data_sha256.slice(0, 16)}…</span> · state <Badge tone="neutral">{rec.state}</Badge>
+          {rec.engine_version} · content hash <span className="font-mono">{rec.content_hash.slice(0, 16)}…</span> · data SHA-256 <span className="font-mono">{rec.data_sha256.slice(0, 16)}…</span>
         </p>
         {rec.results.favoured && <p className="mt-2 text-sm">Favoured by the statistics: <strong>{rec.results.favoured.model}</strong>: {rec.results.favoured.why}</p>}
         {rec.results.notes.map((n) => (
@@ -65,7 +66,10 @@ export default async function FitRecordPage({ params }: { params: Promise<{ id: 
         ))}
         <p className="mt-3 text-xs text-ink-500">An estimate for qualified review: shelf-life and release decisions follow your lab&apos;s SOPs and local regulations.</p>
       </section>
-      <div className="grid gap-6 lg:grid-cols-2">
+      <div className="mb-6">
+        <ReviewPanel fitId={rec.id} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
+      </div>
+      <div className="grid gap-6 xl:grid-cols-2">
         <section>
           <h2 className="mb-2 text-lg font-semibold">Parameters</h2>
           <Table caption="Fitted parameters per model">
