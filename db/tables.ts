@@ -170,6 +170,27 @@ export interface DbCommentRow {
   created_at: string;
 }
 
+export interface DbShareLinkRow {
+  id: number;
+  lab_id: number;
+  token_sha256: string;
+  object_type: string;
+  object_id: number;
+  recipient: string | null;
+  expires_at: string;
+  revoked_at: string | null;
+  revoked_by: number | null;
+  created_by: number;
+  created_at: string;
+}
+
+export interface DbShareViewRow {
+  id: number;
+  share_link_id: number;
+  viewer_id: number;
+  viewed_at: string;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -184,5 +205,7 @@ declare module "knex/types/tables" {
     signatures: DbSignatureRow;
     review_events: DbReviewEventRow;
     comments: DbCommentRow;
+    share_links: DbShareLinkRow;
+    share_views: DbShareViewRow;
   }
 }

@@ -6,6 +6,7 @@ import * as runs from "./20261202040000_runs";
 import * as fits from "./20261202050000_fits";
 import * as studies from "./20261202060000_studies";
 import * as reviews from "./20261202070000_reviews";
+import * as sharing from "./20261202080000_sharing";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
@@ -13,4 +14,5 @@ export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<
   { name: "20261202050000_fits", ...fits },
   { name: "20261202060000_studies", ...studies },
   { name: "20261202070000_reviews", ...reviews },
+  { name: "20261202080000_sharing", ...sharing },
 ];

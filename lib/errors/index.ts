@@ -5,6 +5,7 @@ export const ERROR_CODES = {
   forbidden: 403,
   not_found: 404,
   conflict: 409,
+  gone: 410,
   payload_too_large: 413,
   unprocessable: 422,
   locked: 423,

@@ -4,7 +4,9 @@
 import type { Knex } from "knex";
 import { getFit, latestVersion } from "@/db/queries/fits";
 import { commentsOf, insertComment, insertReviewEvent, insertSignature, reviewEventsOf, signaturesOf, submittedFits } from "@/db/queries/reviews";
-import { findUserById } from "@/db/queries/users";
+import { findUserById, listLabMembers } from "@/db/queries/users";
+import { appUrl, linkMail, sendMail } from "@/lib/mail";
+import { createShareLink } from "@/lib/sharing";
 import { recordAudit } from "@/lib/audit";
 import { verifyPassword } from "@/lib/auth/password";
 import type { SignedInUser } from "@/lib/auth/sign-in";
@@ -68,12 +70,20 @@ export async function submitFit(db: Knex, user: SignedInUser, fitId: number, pas
   if (status.state === "rejected") throw new AppError({ code: "conflict", message: "A rejected version stays rejected: change the fit (a new version) and submit that." });
   await checkPassword(db, user, password, "submit", fitId);
   const at = new Date().toISOString();
-  return db.transaction(async (trx) => {
+  const result = await db.transaction(async (trx) => {
     const sig = await sign(trx, user, f, "authored", at);
     await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: "submitted", actor_id: user.userId, signature_id: sig, reason: null, at });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "fit.submitted", objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: status.state }, newValues: { state: "submitted", signature: { meaning: "authored", content_hash: f.content_hash } } });
     return { state: "submitted" as const, signature_id: sig };
   });
+  // After the commit: each reviewer (never the author) gets a share link pinned to this version by e-mail.
+  const reviewers = (await listLabMembers(db, user.labId)).filter((m) => m.role === "reviewer" && m.user_id !== f.author_id && !m.disabled);
+  for (const r of reviewers)
+    await createShareLink(db, user, fitId, {
+      recipient: r.email,
+      mail: { subject: `Review requested: ${f.title} (version ${f.version})`, lines: [`${user.name} submitted version ${f.version} of "${f.title}" for review and signed it as author.`, "Open the link to comment, approve or reject (your password is asked again to sign)."] },
+    });
+  return result;
 }
 
 export async function decideFit(db: Knex, user: SignedInUser, fitId: number, input: { decision: "approved" | "rejected"; password: string; meaning?: Meaning; reason?: string }) {
@@ -86,12 +96,16 @@ export async function decideFit(db: Knex, user: SignedInUser, fitId: number, inp
   await checkPassword(db, user, input.password, input.decision, fitId);
   const meaning: Meaning = input.meaning ?? (input.decision === "approved" ? "approved" : "reviewed");
   const at = new Date().toISOString();
-  return db.transaction(async (trx) => {
+  const decided = await db.transaction(async (trx) => {
     const sig = await sign(trx, user, f, meaning, at);
     await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: input.decision, actor_id: user.userId, signature_id: sig, reason: input.reason ?? null, at });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: `fit.${input.decision}`, objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: "submitted" }, newValues: { state: input.decision, signature: { meaning, content_hash: f.content_hash } }, reason: input.reason ?? null });
     return { state: input.decision, signature_id: sig };
   });
+  const author = f.author_id ? await findUserById(db, f.author_id) : undefined;
+  if (author)
+    await sendMail(linkMail([author.email], `${input.decision === "approved" ? "Approved" : "Rejected"}: ${f.title} (version ${f.version})`, [`${user.name} ${input.decision} version ${f.version} of "${f.title}" and signed (${meaning}).`, ...(input.reason ? [`Reason: ${input.reason}`] : [])], appUrl(`/fits/${f.id}`)));
+  return decided;
 }
 
 export async function withdrawFit(db: Knex, user: SignedInUser, fitId: number, reason: string) {
@@ -112,11 +126,16 @@ export async function addComment(db: Knex, user: SignedInUser, fitId: number, bo
   const f = await fitVersionOrThrow(db, user.labId, fitId);
   const mayComment = can(user, "review:comment") || f.author_id === user.userId || can(user, "fit:write");
   if (!mayComment) throw new AppError({ code: "forbidden", message: "Your role does not comment on records." });
-  return db.transaction(async (trx) => {
+  const added = await db.transaction(async (trx) => {
     const id = await insertComment(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, parent_id: parentId ?? null, author_id: user.userId, body, created_at: new Date().toISOString() });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "comment.added", objectType: "fit", objectId: f.record_id, objectVersion: f.version, newValues: { comment_id: id, parent_id: parentId ?? null, body } });
     return { id };
   });
+  if (f.author_id && f.author_id !== user.userId) {
+    const author = await findUserById(db, f.author_id);
+    if (author) await sendMail(linkMail([author.email], `Comment on ${f.title} (version ${f.version})`, [`${user.name} commented: ${body.slice(0, 500)}`], appUrl(`/fits/${f.id}`)));
+  }
+  return added;
 }
 
 export async function listComments(db: Knex, labId: number, fitId: number) {

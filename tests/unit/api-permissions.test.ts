@@ -90,6 +90,16 @@ const ROUTES: Record<string, RouteCase> = {
       POST: { permission: "fit:read", url: "/api/fits/1/comments", params: { id: "1" }, json: { body: "matrix comment" }, ok: [201] },
     },
   },
+  "app/api/fits/[id]/report/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1/report", params: { id: "1" } } } },
+  "app/api/fits/[id]/share/route.ts": {
+    methods: {
+      GET: { permission: "share:create", url: "/api/fits/1/share", params: { id: "1" } },
+      POST: { permission: "share:create", url: "/api/fits/1/share", params: { id: "1" }, json: {}, ok: [201] },
+    },
+  },
+  "app/api/share-links/[id]/revoke/route.ts": { methods: { POST: { permission: "share:create", url: "/api/share-links/1/revoke", params: { id: "1" } } } },
+  // Any signed-in member may open a link; this token matches no link, so the answer is the link's own 404.
+  "app/api/share/[token]/route.ts": { methods: { GET: { permission: "self:read", url: "/api/share/x", params: { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" }, ok: [404] } } },
   "app/api/reviews/route.ts": { methods: { GET: { permission: "review:read", url: "/api/reviews" } } },
   "app/api/audit/verify/route.ts": { methods: { GET: { permission: "audit:read", url: "/api/audit/verify" } } },
   "app/api/studies/[id]/results/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/results", params: { id: "1" } } } },

@@ -1,0 +1,44 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { FitRecordView } from "@/components/fits/fit-record-view";
+import { getDb } from "@/db";
+import { requirePageUser } from "@/lib/auth/page";
+import { AppError } from "@/lib/errors";
+import { openShareLink } from "@/lib/sharing";
+
+export const metadata: Metadata = { title: "Shared record" };
+
+// A share link opens one pinned record version for signed-in members of its lab; every open is logged.
+export default async function SharePage({ params }: { params: Promise<{ token: string }> }) {
+  const { token } = await params;
+  const user = await requirePageUser(undefined, `/share/${token}`);
+  let opened;
+  try {
+    opened = await openShareLink(await getDb(), user, token);
+  } catch (e) {
+    if (!(e instanceof AppError)) throw e;
+    return (
+      <main className="grid min-h-[60vh] place-items-center px-4">
+        <div className="max-w-md text-center">
+          <p className="font-mono text-sm text-ink-500">{e.status}</p>
+          <h1 className="mt-2 text-2xl font-semibold">{e.code === "gone" ? "This link is no longer open" : "No such link"}</h1>
+          <p className="mt-3 text-ink-700" data-testid="share-message">{e.message}</p>
+          <Link href="/" className="mt-6 inline-block font-semibold text-quartz-700 hover:underline">Back to your workspace</Link>
+        </div>
+      </main>
+    );
+  }
+  return (
+    <main className="px-gutter py-8 lg:px-10">
+      <FitRecordView
+        user={user}
+        id={opened.fit_id}
+        banner={
+          <p className="mb-4 rounded-cell bg-quartz-100 px-4 py-2 text-sm text-quartz-700" data-testid="share-banner">
+            Opened from a share link pinned to this version (expires {opened.expires_at.slice(0, 10)}). <Link className="font-semibold underline" href="/">Your workspace</Link>
+          </p>
+        }
+      />
+    </main>
+  );
+}

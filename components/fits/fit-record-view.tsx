@@ -1,0 +1,127 @@
+// A fit record version: the number with its uncertainty, the review, parameters, what was done, versions.
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { ReviewPanel } from "@/components/reviews/review-panel";
+import { ShareLinks } from "@/components/reviews/share-links";
+import { PageHeader } from "@/components/shell/page-header";
+import { Badge } from "@/components/ui/badge";
+import { Table, Td, Th } from "@/components/ui/table";
+import { getDb } from "@/db";
+import type { SignedInUser } from "@/lib/auth/sign-in";
+import { AppError } from "@/lib/errors";
+import { fitVersions, getFitRecord } from "@/lib/fits";
+import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
+import { can } from "@/lib/permissions";
+
+
+/** One fit record version as a page body: used by /fits/[id] and by share links (/share/[token]). */
+export async function FitRecordView({ user, id, banner }: { user: SignedInUser; id: number; banner?: React.ReactNode }) {
+  const db = await getDb();
+  const rec = await getFitRecord(db, user.labId, Number(id)).catch((e: unknown) => {
+    if (e instanceof AppError && e.code === "not_found") notFound();
+    throw e;
+  });
+  const versions = await fitVersions(db, user.labId, rec.id);
+  const newest = versions.at(-1)!;
+  const k = rec.primary.k;
+  return (
+    <>
+      <PageHeader
+        title={rec.title}
+        lede={`Version ${rec.version} of ${versions.length} · ${rec.run.name} · ${rec.series.name} · saved ${rec.created_at.slice(0, 16).replace("T", " ")} UTC by ${rec.author ?? "—"}`}
+        actions={
+          <div className="flex flex-wrap gap-2">
+            <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/export?kind=data`} data-testid="export-data">
+              Data CSV
+            </a>
+            <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/export?kind=parameters`}>
+              Parameters CSV
+            </a>
+            <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/report`} data-testid="report-pdf">
+              PDF report
+            </a>
+            {can(user, "fit:write") && newest.id === rec.id && (
+              <Link className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-3 text-sm font-semibold text-white" href={`/runs/${rec.run.id}/series/${rec.series.id}/fit?from=${rec.id}`}>
+                Change (new version)
+              </Link>
+            )}
+          </div>
+        }
+      />
+      {banner}
+      {newest.id !== rec.id && (
+        <p className="mb-4 rounded-cell bg-caution-100 px-4 py-2 text-sm text-caution-700">
+          This is not the newest version. <Link className="font-semibold underline" href={`/fits/${newest.id}`}>Open version {newest.version}</Link>.
+        </p>
+      )}
+      <section className="mb-6 rounded-cell bg-paper-raised p-5 shadow-lift">
+        <p className="text-sm text-ink-500">Rate constant ({rec.primary.model})</p>
+        <p className="num font-mono text-3xl" data-testid="record-k">
+          k = {k === null ? "—" : formatWithUncertainty(k, rec.primary.k_se)} s{superscript(-1)}
+        </p>
+        {k !== null && <p className="num mt-1 font-mono text-sm text-ink-700">= {formatWithUncertainty(k * 60, rec.primary.k_se === null ? null : rec.primary.k_se * 60)} min{superscript(-1)}</p>}
+        <p className="mt-3 text-xs text-ink-500">
+          {rec.engine_version} · content hash <span className="font-mono">{rec.content_hash.slice(0, 16)}…</span> · data SHA-256 <span className="font-mono">{rec.data_sha256.slice(0, 16)}…</span>
+        </p>
+        {rec.results.favoured && <p className="mt-2 text-sm">Favoured by the statistics: <strong>{rec.results.favoured.model}</strong>: {rec.results.favoured.why}</p>}
+        {rec.results.notes.map((n) => (
+          <p key={n} className="mt-2 rounded-cell bg-caution-100 px-3 py-2 text-sm text-caution-700">{n}</p>
+        ))}
+        <p className="mt-3 text-xs text-ink-500">An estimate for qualified review: shelf-life and release decisions follow your lab&apos;s SOPs and local regulations.</p>
+      </section>
+      <div className="mb-6 space-y-6">
+        <ReviewPanel fitId={rec.id} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
+        {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
+      </div>
+      <div className="grid gap-6 xl:grid-cols-2">
+        <section>
+          <h2 className="mb-2 text-lg font-semibold">Parameters</h2>
+          <Table caption="Fitted parameters per model">
+            <thead>
+              <tr>
+                <Th>Model</Th>
+                <Th>Parameter</Th>
+                <Th numeric>Value ± SE</Th>
+                <Th numeric>95 % CI</Th>
+              </tr>
+            </thead>
+            <tbody>
+              {rec.results.models.flatMap((m) =>
+                m.result.parameters.map((p) => (
+                  <tr key={`${m.model}-${p.name}`}>
+                    <Td>{m.model}</Td>
+                    <Td className="font-mono">{p.name}</Td>
+                    <Td numeric>{p.value === null ? "no fit" : formatWithUncertainty(p.value, p.se)}{p.fixed ? " (fixed)" : ""}</Td>
+                    <Td numeric>{p.ci95 ? `${formatNumber(p.ci95[0], 4)} … ${formatNumber(p.ci95[1], 4)}` : "—"}</Td>
+                  </tr>
+                )),
+              )}
+            </tbody>
+          </Table>
+          <h2 className="mb-2 mt-6 text-lg font-semibold">What was done</h2>
+          <ul className="list-disc pl-5 text-sm" data-testid="record-options">
+            <li>Models: {rec.options.models.join(", ")}</li>
+            {rec.options.window && <li>Window: {rec.options.window.from ?? "start"} – {rec.options.window.to ?? "end"} s</li>}
+            {Object.entries(rec.options.fixed ?? {}).map(([k2, v]) => <li key={k2}>{k2} fixed at {v}</li>)}
+            {(rec.options.exclusions ?? []).map((e) => <li key={e.index}>Point {e.index + 1} excluded: “{e.reason}”</li>)}
+            {rec.options.conversion && <li>Beer–Lambert: ε {rec.options.conversion.epsilon} L mol⁻¹ cm⁻¹, b {rec.options.conversion.pathLengthCm} cm</li>}
+            {!rec.options.window && !rec.options.exclusions?.length && !rec.options.fixed && <li>Every point, nothing fixed.</li>}
+          </ul>
+        </section>
+        <section>
+          <h2 className="mb-2 text-lg font-semibold">Versions</h2>
+          <ol className="space-y-2" data-testid="versions">
+            {versions.map((v) => (
+              <li key={v.id} className={`rounded-cell border px-3 py-2 text-sm ${v.id === rec.id ? "border-quartz-600 bg-quartz-100" : "border-ink-100 bg-paper-raised"}`}>
+                <Link href={`/fits/${v.id}`} className="font-semibold text-quartz-700 hover:underline">Version {v.version}</Link>
+                <span className="text-ink-500"> · {v.created_at.slice(0, 16).replace("T", " ")} UTC · {v.author ?? "—"} · k = {formatWithUncertainty(v.k, v.k_se)} s⁻¹</span>
+                {v.reason && <p className="mt-1">Why: {v.reason}</p>}
+                <ul className="mt-1 list-disc pl-5 text-ink-700">{v.changes.map((c) => <li key={c}>{c}</li>)}</ul>
+              </li>
+            ))}
+          </ol>
+        </section>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,75 @@
+"use client";
+// Share links for one record version: make one (optionally e-mailed), see how often each was opened, revoke.
+import { useState } from "react";
+import useSWR from "swr";
+import { Button } from "@/components/ui/button";
+import { Input } from "@/components/ui/field";
+import { useToast } from "@/components/ui/toast";
+import { fetcher } from "@/lib/http/fetcher";
+
+interface LinkRow {
+  id: number;
+  recipient: string | null;
+  expires_at: string;
+  revoked_at: string | null;
+  created_at: string;
+  views: number;
+}
+
+export function ShareLinks({ fitId }: { fitId: number }) {
+  const toast = useToast();
+  const links = useSWR<{ links: LinkRow[] }>(`/api/fits/${fitId}/share`, fetcher);
+  const [recipient, setRecipient] = useState("");
+  const [made, setMade] = useState<string | null>(null);
+
+  async function make() {
+    const res = await fetch(`/api/fits/${fitId}/share`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ recipient: recipient.trim() || null }) });
+    const out = await res.json();
+    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    setMade(out.url);
+    setRecipient("");
+    await links.mutate();
+  }
+  async function revoke(id: number) {
+    const res = await fetch(`/api/share-links/${id}/revoke`, { method: "POST" });
+    if (!res.ok) return toast("The link could not be revoked.", "fault");
+    toast("Link revoked.", "info");
+    await links.mutate();
+  }
+
+  return (
+    <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Share links">
+      <h2 className="text-lg font-semibold">Share this version</h2>
+      <p className="text-sm text-ink-500">A link opens exactly this version, read-only, for signed-in members of the lab, for 14 days. Only its hash is stored.</p>
+      <div className="mt-3 flex flex-wrap items-end gap-2">
+        <div className="w-72">
+          <Input label="E-mail it to (optional)" type="email" value={recipient} onChange={(e) => setRecipient(e.target.value)} />
+        </div>
+        <Button variant="secondary" onClick={make} data-testid="make-share">
+          Make a link
+        </Button>
+      </div>
+      {made && (
+        <p className="mt-2 break-all rounded-cell bg-quartz-100 px-3 py-2 font-mono text-xs" data-testid="share-url">
+          {made}
+        </p>
+      )}
+      {links.error && <p className="mt-2 text-sm text-fault-700">The links could not be loaded: {links.error.message}</p>}
+      <ul className="mt-3 space-y-1 text-sm">
+        {links.data?.links.map((l) => (
+          <li key={l.id} className="flex flex-wrap items-center gap-2">
+            <span>
+              Link {l.id}
+              {l.recipient ? ` to ${l.recipient}` : ""} · made {l.created_at.slice(0, 10)} · {l.revoked_at ? `revoked ${l.revoked_at.slice(0, 10)}` : `expires ${l.expires_at.slice(0, 10)}`} · opened {l.views}×
+            </span>
+            {!l.revoked_at && (
+              <button type="button" className="text-quartz-700 underline" onClick={() => revoke(l.id)}>
+                revoke
+              </button>
+            )}
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}

@@ -1,0 +1,108 @@
+// The PDF report of one fit record version (pdfkit): lab, run and file identity, the plot, parameters and diagnostics,
+// exclusions with reasons, versions, signature blocks and the record's audit events. It uses the PDF standard fonts:
+// pdfkit's font subsetter (fontkit) throws "Offset is outside the bounds of the DataView" on the app's woff2 files.
+import PDFDocument from "pdfkit";
+import type { Knex } from "knex";
+import { computeFit, fitVersions, getFitRecord } from "@/lib/fits";
+import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
+import { reviewStatus } from "@/lib/reviews";
+import { getRunDetail } from "@/lib/runs";
+
+/** The standard fonts cover Windows-1252 only: exponents become ^n and the few other signs are spelled out. */
+export function printable(s: string): string {
+  const sup: Record<string, string> = { "⁻": "-", "⁰": "0", "¹": "1", "²": "2", "³": "3", "⁴": "4", "⁵": "5", "⁶": "6", "⁷": "7", "⁸": "8", "⁹": "9" };
+  const words: Record<string, string> = { "−": "-", "∞": "inf", "λ": "lambda", "ε": "epsilon", "Δ": "d", "→": "->", "≥": ">=", "≤": "<=", "µ": "u" };
+  return s
+    .replace(/[⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+/g, (m) => `^${[...m].map((c) => sup[c]).join("")}`)
+    .replace(/[−∞λεΔ→≥≤]/g, (c) => words[c]!)
+    .replace(/[^\x00-\xff€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ]/g, "?");
+}
+
+export async function fitReportPdf(db: Knex, labId: number, labName: string, id: number): Promise<{ name: string; bytes: Buffer }> {
+  const rec = await getFitRecord(db, labId, id);
+  const run = await getRunDetail(db, labId, rec.run.id);
+  const versions = await fitVersions(db, labId, id);
+  const review = await reviewStatus(db, labId, id);
+  const audit = await db("audit_events").where({ lab_id: labId, object_type: "fit", object_id: String(rec.record_id) }).orderBy("id");
+  const { t, y, outcome } = await computeFit(db, labId, rec.run.id, rec.series.id, rec.options);
+
+  const doc = new PDFDocument({ size: "A4", margin: 48, info: { Title: `${rec.title} v${rec.version}`, Author: "Halflight", Subject: `content hash ${rec.content_hash}` } });
+  const chunks: Buffer[] = [];
+  doc.on("data", (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
+  const font = (kind: "sans" | "bold" | "mono") => doc.font({ sans: "Helvetica", bold: "Helvetica-Bold", mono: "Courier" }[kind]);
+  const line = (text: string, size = 10, kind: "sans" | "bold" | "mono" = "sans") => font(kind).fontSize(size).text(printable(text));
+  const heading = (text: string) => {
+    doc.moveDown(0.6);
+    line(text, 12, "bold");
+    doc.moveDown(0.2);
+  };
+
+  line(`Halflight fit record: ${rec.title}`, 16, "bold");
+  line(`Version ${rec.version} of ${versions.length} · ${labName}`, 10);
+  line(`Saved ${rec.created_at.replace("T", " ").slice(0, 19)} UTC by ${rec.author ?? "—"} · review state: ${review.state}${review.superseded_by ? ` (superseded by version ${review.superseded_by.version})` : ""}`, 10);
+  doc.moveDown(0.4);
+  line(`Run: ${run.name} · series ${rec.series.name} · ${run.wavelength_nm ?? "?"} nm · ${run.path_length_cm ?? "?"} cm · ${run.temperature_c ?? "?"} °C · method ${run.method ?? "not given"}`, 9);
+  line(`Raw file: ${run.raw_file.name} · SHA-256 ${run.raw_file.sha256}`, 8, "mono");
+  line(`Data SHA-256 ${rec.data_sha256}`, 8, "mono");
+  line(`Record content hash ${rec.content_hash} · ${rec.engine_version}`, 8, "mono");
+
+  heading(`Rate constant (${rec.primary.model})`);
+  line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} s⁻¹`, 14, "mono");
+
+  // The plot: data (included dots, excluded crosses) and the nonlinear first-order curve, drawn as vectors.
+  const box = { x: 60, y: doc.y + 8, w: 470, h: 170 };
+  const tMin = Math.min(...t),
+    tMax = Math.max(...t),
+    yMin = Math.min(...y),
+    yMax = Math.max(...y);
+  const px = (v: number) => box.x + ((v - tMin) / (tMax - tMin || 1)) * box.w;
+  const py = (v: number) => box.y + box.h - ((v - yMin) / (yMax - yMin || 1)) * box.h;
+  doc.lineWidth(0.5).strokeColor("#a9b1bf").rect(box.x, box.y, box.w, box.h).stroke();
+  for (let i = 0; i < t.length; i += Math.max(1, Math.ceil(t.length / 800))) {
+    if (outcome.included[i]) doc.circle(px(t[i]!), py(y[i]!), 1.4).fillColor("#2b50c8").fill();
+    else doc.strokeColor("#5d687c").moveTo(px(t[i]!) - 2, py(y[i]!) - 2).lineTo(px(t[i]!) + 2, py(y[i]!) + 2).stroke();
+  }
+  const curve = outcome.curves["first-order"];
+  if (curve && curve.t.length > 1) {
+    doc.strokeColor("#d55e00").lineWidth(1.2).moveTo(px(curve.t[0]!), py(curve.fitted[0]!));
+    for (let i = 1; i < curve.t.length; i += Math.max(1, Math.ceil(curve.t.length / 400))) doc.lineTo(px(curve.t[i]!), py(curve.fitted[i]!));
+    doc.stroke();
+  }
+  doc.fillColor("#1b2230");
+  font("sans").fontSize(8).text(printable(`t from ${formatNumber(tMin, 4)} to ${formatNumber(tMax, 4)} s; y from ${formatNumber(yMin, 4)} to ${formatNumber(yMax, 4)}`), box.x, box.y + box.h + 4);
+  doc.x = 48;
+  doc.y = box.y + box.h + 18;
+
+  heading("Parameters and diagnostics");
+  for (const m of rec.results.models) {
+    line(`${m.model}: n ${m.result.n}, dof ${m.result.dof}, SSR ${formatNumber(m.result.ssr, 4)}, r² ${m.result.r2?.toFixed(5) ?? "—"}, AICc ${m.result.aicc?.toFixed(2) ?? "—"}, runs ${m.result.runs ?? "—"}, Durbin–Watson ${m.result.durbin_watson?.toFixed(2) ?? "—"}`, 9, "bold");
+    for (const p of m.result.parameters) line(`   ${p.name} = ${p.value === null ? "no fit" : formatWithUncertainty(p.value, p.se)}${p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}`, 9, "mono");
+    if (!m.result.converged) line(`   ${m.result.message}`, 9);
+    for (const w of m.result.warnings) line(`   ${w}`, 8);
+  }
+  for (const n of rec.results.notes) line(n, 9);
+
+  heading("What was done");
+  line(`Models: ${rec.options.models.join(", ")}`, 9);
+  if (rec.options.window) line(`Window: ${rec.options.window.from ?? "start"} to ${rec.options.window.to ?? "end"} s`, 9);
+  for (const [k, v] of Object.entries(rec.options.fixed ?? {})) line(`${k} fixed at ${v}`, 9);
+  for (const e of rec.options.exclusions ?? []) line(`Point ${e.index + 1} (t = ${formatNumber(t[e.index], 5)} s) excluded: ${e.reason}`, 9);
+  if (!(rec.options.exclusions ?? []).length) line("No point excluded.", 9);
+
+  heading("Versions");
+  for (const v of versions) line(`Version ${v.version}, ${v.created_at.replace("T", " ").slice(0, 16)} UTC, ${v.author ?? "—"}${v.reason ? `: ${v.reason}` : ""} (${v.changes.join("; ")})`, 9);
+
+  heading("Signatures");
+  if (review.signatures.length === 0) line("None.", 9);
+  for (const s of review.signatures)
+    line(`${s.printed_name} · ${s.meaning.toUpperCase()} · ${s.signed_at.replace("T", " ").slice(0, 19)} UTC · signed hash ${s.content_hash}${s.void ? " · VOID (the record no longer matches)" : ""}`, 9);
+
+  heading("Audit events of this record");
+  for (const a of audit) line(`${a.at.replace("T", " ").slice(0, 19)} UTC · ${a.action} · v${a.object_version ?? "—"}${a.reason ? ` · ${a.reason}` : ""}`, 8, "mono");
+
+  doc.moveDown(0.8);
+  line("An estimate for qualified review: shelf-life and release decisions follow the lab's SOPs and local regulations.", 8);
+  doc.end();
+  return { name: `fit-${rec.record_id}-v${rec.version}.pdf`, bytes: await done };
+}

@@ -1,0 +1,69 @@
+// Share links: one pinned record version, a random 192-bit token of which only the SHA-256 is stored, an expiry
+// (14 days by default), revocation, and every open logged.
+import { createHash, randomBytes } from "node:crypto";
+import type { Knex } from "knex";
+import { getFit } from "@/db/queries/fits";
+import { findShareLink, findShareLinkByTokenHash, insertShareLink, insertShareView, revokeShareLink, shareLinksOf } from "@/db/queries/sharing";
+import { recordAudit } from "@/lib/audit";
+import type { SignedInUser } from "@/lib/auth/sign-in";
+import { AppError } from "@/lib/errors";
+import { appUrl, linkMail, sendMail } from "@/lib/mail";
+
+const tokenHash = (t: string) => createHash("sha256").update(t).digest("hex");
+export const DEFAULT_SHARE_DAYS = 14;
+
+export async function createShareLink(
+  db: Knex,
+  user: SignedInUser,
+  fitId: number,
+  opts: { recipient?: string | null; days?: number; mail?: { subject: string; lines: string[] } },
+) {
+  const f = await getFit(db, user.labId, fitId);
+  if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
+  const token = randomBytes(24).toString("base64url");
+  const now = new Date();
+  const expires = new Date(now.getTime() + (opts.days ?? DEFAULT_SHARE_DAYS) * 86_400_000).toISOString();
+  const id = await db.transaction(async (trx) => {
+    const linkId = await insertShareLink(trx, { lab_id: user.labId, token_sha256: tokenHash(token), object_type: "fit", object_id: fitId, recipient: opts.recipient ?? null, expires_at: expires, revoked_at: null, revoked_by: null, created_by: user.userId, created_at: now.toISOString() });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.created", objectType: "fit", objectId: f.record_id, objectVersion: f.version, newValues: { share_link_id: linkId, recipient: opts.recipient ?? null, expires_at: expires } });
+    return linkId;
+  });
+  const url = appUrl(`/share/${token}`);
+  if (opts.recipient) {
+    const subject = opts.mail?.subject ?? `Shared with you: ${f.title} (version ${f.version})`;
+    const lines = opts.mail?.lines ?? [`${user.name} shared version ${f.version} of "${f.title}" with you, read-only.`];
+    await sendMail(linkMail([opts.recipient], subject, [...lines, `The link opens for signed-in members of ${user.labName} and expires ${expires.slice(0, 10)}.`], url));
+  }
+  // The token is shown once, here; the database keeps only its hash.
+  return { id, url, path: `/share/${token}`, expires_at: expires };
+}
+
+export async function revokeLink(db: Knex, user: SignedInUser, linkId: number) {
+  const l = await findShareLink(db, user.labId, linkId);
+  if (!l) throw new AppError({ code: "not_found", message: `There is no share link ${linkId} in this lab.` });
+  if (l.revoked_at) return { revoked_at: l.revoked_at };
+  const at = new Date().toISOString();
+  await db.transaction(async (trx) => {
+    await revokeShareLink(trx, linkId, user.userId, at);
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.revoked", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: linkId } });
+  });
+  return { revoked_at: at };
+}
+
+/** Opens a link for a signed-in member of its lab: the pinned version's id, or a plain 410 when it is over. */
+export async function openShareLink(db: Knex, user: SignedInUser, token: string, now = new Date()) {
+  const l = await findShareLinkByTokenHash(db, tokenHash(token));
+  if (!l || l.lab_id !== user.labId) throw new AppError({ code: "not_found", message: "This share link does not exist, or belongs to another lab." });
+  if (l.revoked_at) throw new AppError({ code: "gone", message: `This share link was revoked on ${l.revoked_at.slice(0, 16).replace("T", " ")} UTC. Ask the sender for a new one.` });
+  if (Date.parse(l.expires_at) <= now.getTime()) throw new AppError({ code: "gone", message: `This share link expired on ${l.expires_at.slice(0, 16).replace("T", " ")} UTC. Ask the sender for a new one.` });
+  const at = now.toISOString();
+  await db.transaction(async (trx) => {
+    await insertShareView(trx, l.id, user.userId, at);
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.viewed", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
+  });
+  return { fit_id: l.object_id, expires_at: l.expires_at, recipient: l.recipient };
+}
+
+export async function listShareLinks(db: Knex, labId: number, fitId: number) {
+  return (await shareLinksOf(db, labId, "fit", fitId)).map((r) => ({ ...r, views: Number((r as { views: unknown }).views) }));
+}

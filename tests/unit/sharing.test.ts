@@ -1,0 +1,133 @@
+// Share links (token hashed, pinned version, 410 when revoked or expired, views logged), review mail, and the PDF
+// report's text (read back with poppler's pdftotext, Debian's poppler-utils).
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { simpleParser } from "mailparser";
+import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import type { Knex } from "knex";
+import { setDb } from "@/db";
+import { insertLab } from "@/db/queries/labs";
+import { insertMembership, insertUser } from "@/db/queries/users";
+import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
+import { hashPassword } from "@/lib/auth/password";
+import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
+import { startMailSink } from "@/lib/mail/sink";
+import { fitReportPdf } from "@/lib/reports/fit-pdf";
+import { decideFit, submitFit } from "@/lib/reviews";
+import { openShareLink } from "@/lib/sharing";
+import { freshDb } from "./../helpers/db";
+
+const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
+vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
+const ctx = (params: Record<string, string> = {}) => ({ params: Promise.resolve(params) }) as never;
+
+let db: Knex;
+const as: Record<string, SignedInUser> = {};
+const pw = (role: string) => DEMO_USERS.find((u) => u.role === role)!.password;
+let sink: Awaited<ReturnType<typeof startMailSink>>;
+const mailDir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-mail-"));
+
+async function share(fitId: number, body: unknown) {
+  const { POST } = await import("@/app/api/fits/[id]/share/route");
+  const res = await POST(new Request(`http://halflight.test/api/fits/${fitId}/share`, { method: "POST", body: JSON.stringify(body) }), ctx({ id: String(fitId) }));
+  return { status: res.status, body: await res.json() };
+}
+async function open(token: string) {
+  const { GET } = await import("@/app/api/share/[token]/route");
+  const res = await GET(new Request(`http://halflight.test/api/share/${token}`), ctx({ token }));
+  return { status: res.status, body: await res.json() };
+}
+const raw = () => fs.readdirSync(mailDir).filter((f) => f.endsWith(".eml")).sort().map((f) => fs.readFileSync(path.join(mailDir, f)));
+/** Each message decoded (headers may be RFC 2047-encoded) as "To: …\nSubject: …\n\ntext". */
+async function decoded(from = 0): Promise<string[]> {
+  return Promise.all(raw().slice(from).map(async (b) => {
+    const m = await simpleParser(b);
+    const to = Array.isArray(m.to) ? m.to.map((x) => x.text).join(", ") : (m.to?.text ?? "");
+    return `To: ${to}\nSubject: ${m.subject ?? ""}\n\n${m.text ?? ""}`;
+  }));
+}
+
+beforeAll(async () => {
+  sink = await startMailSink(mailDir);
+  process.env.SMTP_URL = `smtp://127.0.0.1:${sink.port}`;
+  process.env.NEXTAUTH_URL = "http://halflight.test";
+  db = await freshDb();
+  setDb(db);
+  await seedDemoWhenEmpty(db, new Date(), { runs: true });
+  for (const u of DEMO_USERS) as[u.role] = await signInWithPassword(db, u.email, u.password);
+});
+beforeEach(() => {
+  session.current = as.analyst!;
+});
+afterAll(async () => {
+  delete process.env.SMTP_URL;
+  await sink.close();
+  await db.destroy();
+});
+
+describe("share links", () => {
+  it("stores only the token's hash, opens the pinned version and logs each view", async () => {
+    const s = await share(1, { recipient: "qa.partner@larkspur.example" });
+    expect(s.status).toBe(201);
+    const token = s.body.path.split("/").pop();
+    expect(token.length).toBeGreaterThanOrEqual(32); // 24 random bytes, base64url
+    const row = await db("share_links").where({ id: s.body.id }).first();
+    expect(JSON.stringify(row)).not.toContain(token);
+    const o = await open(token);
+    expect(o).toMatchObject({ status: 200, body: { fit_id: 1 } });
+    expect(await db("share_views").where({ share_link_id: s.body.id })).toHaveLength(1);
+    expect((await decoded()).some((m) => m.includes("To: qa.partner@larkspur.example") && m.includes(`http://halflight.test/share/${token}`))).toBe(true);
+  });
+
+  it("a revoked link answers 410 with a plain message", async () => {
+    const s = await share(1, {});
+    const token = s.body.path.split("/").pop();
+    const { POST } = await import("@/app/api/share-links/[id]/revoke/route");
+    await POST(new Request("http://halflight.test/x", { method: "POST" }), ctx({ id: String(s.body.id) }));
+    const o = await open(token);
+    expect(o.status).toBe(410);
+    expect(o.body.error.message).toMatch(/This share link was revoked on .* Ask the sender for a new one\./);
+  });
+
+  it("an expired link answers 410", async () => {
+    const s = await share(1, { days: 1 });
+    const token = s.body.path.split("/").pop();
+    await expect(openShareLink(db, as.analyst!, token, new Date(Date.now() + 2 * 86_400_000))).rejects.toMatchObject({ status: 410, message: expect.stringMatching(/expired on/) });
+  });
+
+  it("a member of another lab gets 404", async () => {
+    const s = await share(1, {});
+    const now = new Date().toISOString();
+    const lab = await insertLab(db, { slug: "elsewhere", name: "Elsewhere", createdAt: now });
+    const u = await insertUser(db, { email: "out@elsewhere.example", displayName: "Out Sider", passwordHash: await hashPassword("elsewhere-123"), createdAt: now });
+    await insertMembership(db, { userId: u.id, labId: lab.id, role: "reviewer", createdAt: now });
+    session.current = await signInWithPassword(db, "out@elsewhere.example", "elsewhere-123");
+    expect((await open(s.body.path.split("/").pop())).status).toBe(404);
+  });
+});
+
+describe("review mail and the PDF report", () => {
+  it("submitting mails each reviewer a pinned link; the PDF holds the signature meaning, the name and the record hash", async () => {
+    const before = raw().length;
+    await submitFit(db, as.analyst!, 2, pw("analyst"));
+    const fresh = await decoded(before);
+    const toReviewer = fresh.find((m) => m.includes("To: rafe.okonkwo@larkspur.example"))!;
+    expect(toReviewer).toMatch(/Subject: Review requested: corvane-blue-30C/);
+    expect(toReviewer).toMatch(/http:\/\/halflight\.test\/share\/[A-Za-z0-9_-]{32}/);
+    await decideFit(db, as.reviewer!, 2, { decision: "approved", password: pw("reviewer") });
+    expect((await decoded(before)).some((m) => m.includes("To: amara.quist@larkspur.example") && m.includes("Subject: Approved:"))).toBe(true);
+
+    const pdf = await fitReportPdf(db, as.analyst!.labId, as.analyst!.labName, 2);
+    const file = path.join(mailDir, "..", `report-${Date.now()}.pdf`);
+    fs.writeFileSync(file, pdf.bytes);
+    const text = spawnSync("pdftotext", ["-layout", file, "-"], { encoding: "utf8" });
+    expect(text.status, "pdftotext (Debian's poppler-utils) is needed").toBe(0);
+    const hash = (await db("fits").where({ id: 2 }).first())!.content_hash;
+    expect(text.stdout).toContain("Rafe Okonkwo · APPROVED");
+    expect(text.stdout).toContain("Amara Quist · AUTHORED");
+    expect(text.stdout.replace(/\s+/g, "")).toContain(hash);
+    expect(text.stdout).toMatch(/fit\.approved/);
+  });
+});
