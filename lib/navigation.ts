@@ -57,4 +57,10 @@ export const AREAS: readonly Area[] = [
     permission: "audit:read",
     purpose: "Every sign-in, change, signature and export in this lab, in order, with who, when and why.",
   },
+  {
+    href: "/admin/inbox",
+    label: "Demo inbox",
+    permission: "user:manage",
+    purpose: "The mail the local sink caught (demo and tests only).",
+  },
 ];

@@ -13,6 +13,7 @@ import { findLabBySlug } from "@/db/queries/labs";
 import { insertMembership, insertUser } from "@/db/queries/users";
 import { DEMO_LAB, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { hashPassword } from "@/lib/auth/password";
+import { startMailSink } from "@/lib/mail/sink";
 
 export const LOCKOUT_USER = { email: "lockout.probe@larkspur.example", password: "probe-pass-1234" };
 
@@ -21,6 +22,7 @@ declare module "vitest" {
     baseURL: string;
     lockoutUser: { email: string; password: string };
     artifacts: string;
+    mailDir: string;
   }
 }
 
@@ -50,6 +52,7 @@ async function waitForServer(url: string, child: ChildProcess, ms: number): Prom
 }
 
 let server: ChildProcess | undefined;
+let sink: Awaited<ReturnType<typeof startMailSink>> | undefined;
 
 export async function setup(project: TestProject): Promise<void> {
   if (process.env.HALFLIGHT_SKIP_BUILD !== "1") {
@@ -75,6 +78,8 @@ export async function setup(project: TestProject): Promise<void> {
   await insertMembership(db, { userId: u.id, labId: lab!.id, role: "analyst", createdAt: now });
   await db.destroy();
 
+  const mailDir = path.join(dir, "mail");
+  sink = await startMailSink(mailDir);
   const port = await freePort();
   const baseURL = `http://127.0.0.1:${port}`;
   server = spawn(process.execPath, [path.resolve("node_modules/next/dist/bin/next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
@@ -85,6 +90,8 @@ export async function setup(project: TestProject): Promise<void> {
       NEXTAUTH_URL: baseURL,
       NEXTAUTH_SECRET: randomBytes(24).toString("base64url"),
       NEXT_TELEMETRY_DISABLED: "1",
+      SMTP_URL: `smtp://127.0.0.1:${sink.port}`,
+      MAIL_SINK_DIR: mailDir,
     },
   });
   await waitForServer(`${baseURL}/sign-in`, server, 60_000);
@@ -94,8 +101,10 @@ export async function setup(project: TestProject): Promise<void> {
   project.provide("baseURL", baseURL);
   project.provide("lockoutUser", LOCKOUT_USER);
   project.provide("artifacts", artifacts);
+  project.provide("mailDir", mailDir);
 }
 
 export async function teardown(): Promise<void> {
   server?.kill("SIGTERM");
+  await sink?.close();
 }

@@ -1,6 +1,9 @@
 // Sign-off as the lab does it: the analyst submits a fit (signing), the reviewer finds it in the queue, comments and
 // approves with the password, the analyst sees the signature blocks, then changes the fit and the approval is superseded.
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
 import path from "node:path";
+import { simpleParser } from "mailparser";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
@@ -38,9 +41,23 @@ describe("review and sign-off", () => {
     await a.getByTestId("sign").click();
     await expect.poll(() => state(a).textContent()).toBe("submitted");
     const fitUrl = a.url();
+    const fitId = fitUrl.split("/").pop()!;
 
-    await r.goto(`${baseURL}/reviews`);
-    await r.getByRole("link", { name: /corvane-blue-30C · Cell 1/ }).click();
+    // The reviewer's e-mail arrives in the local sink with a link pinned to this version.
+    const mailDir = inject("mailDir");
+    const findMail = async () => {
+      for (const f of fs.existsSync(mailDir) ? fs.readdirSync(mailDir).sort() : []) {
+        const m = await simpleParser(fs.readFileSync(path.join(mailDir, f)));
+        const to = Array.isArray(m.to) ? m.to.map((x) => x.text).join() : (m.to?.text ?? "");
+        if (to.includes(reviewer.email) && /^Review requested/.test(m.subject ?? "")) return m.text ?? "";
+      }
+      return null;
+    };
+    await expect.poll(findMail, { timeout: 10_000 }).not.toBeNull();
+    const link = (await findMail())!.match(/https?:\/\/\S+\/share\/[A-Za-z0-9_-]+/)![0];
+    await r.goto(link.replace(/^https?:\/\/[^/]+/, baseURL));
+    await r.getByTestId("share-banner").waitFor();
+    await r.getByRole("heading", { name: /corvane-blue-30C · Cell 1/ }).waitFor();
     await r.getByLabel("Add a comment").fill("Residuals look random; k agrees with the 25 and 40 °C runs.");
     await r.getByRole("button", { name: "Comment" }).click();
     await r.getByTestId("comments").getByText("Residuals look random").waitFor();
@@ -57,6 +74,16 @@ describe("review and sign-off", () => {
     await sigs.getByText("Rafe Okonkwo").waitFor();
     await expect(sigs.textContent()).resolves.toMatch(/Amara Quist · authored · .*UTC.*Rafe Okonkwo · approved · .*UTC/s);
     await a.screenshot({ path: path.join(artifacts, "fit-approved.png"), fullPage: true });
+
+    // The PDF report carries the signature meaning, the name and the record's hash.
+    const pdf = await a.request.get(`${baseURL}/api/fits/${fitId}/report`);
+    expect(pdf.headers()["content-type"]).toBe("application/pdf");
+    const pdfFile = path.join(artifacts, "fit-report.pdf");
+    fs.writeFileSync(pdfFile, await pdf.body());
+    const text = spawnSync("pdftotext", ["-layout", pdfFile, "-"], { encoding: "utf8" }).stdout;
+    const hash = (await (await a.request.get(`${baseURL}/api/fits/${fitId}`)).json()).content_hash as string;
+    expect(text).toContain("Rafe Okonkwo · APPROVED");
+    expect(text.replace(/\s+/g, "")).toContain(hash);
 
     await a.getByRole("link", { name: "Change (new version)" }).click();
     await a.getByTestId("comparison").waitFor();
