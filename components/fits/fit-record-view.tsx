@@ -8,6 +8,7 @@ import { Badge } from "@/components/ui/badge";
 import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
 import type { SignedInUser } from "@/lib/auth/sign-in";
+import { listAuditTrail } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import { fitVersions, getFitRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
@@ -22,6 +23,7 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
     throw e;
   });
   const versions = await fitVersions(db, user.labId, rec.id);
+  const audit = await listAuditTrail(db, user.labId, { limit: 200, objectType: "fit", objectId: String(rec.record_id) });
   const newest = versions.at(-1)!;
   const k = rec.primary.k;
   return (
@@ -122,6 +124,18 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
           </ol>
         </section>
       </div>
+      <section className="mt-8" aria-label="Audit events of this record">
+        <h2 className="mb-2 text-lg font-semibold">Audit events of this record</h2>
+        <ol className="space-y-1 font-mono text-xs" data-testid="record-audit">
+          {audit.map((e) => (
+            <li key={e.id}>
+              {e.at.replace("T", " ").slice(0, 19)} UTC · {e.actorLabel ?? "—"} · {e.action}
+              {e.objectVersion ? ` · v${e.objectVersion}` : ""}
+              {e.reason ? ` · ${e.reason}` : ""}
+            </li>
+          ))}
+        </ol>
+      </section>
     </>
   );
 }

@@ -18,7 +18,7 @@ export type AuditRowWithActor = DbAuditEventRow & { actor_name: string | null };
 
 export async function listAuditRows(
   db: Db,
-  opts: { labId: number; limit: number; beforeId?: number },
+  opts: { labId: number; limit: number; beforeId?: number; action?: string; from?: string; to?: string; objectType?: string; objectId?: string },
 ): Promise<AuditRowWithActor[]> {
   const q = db("audit_events as a")
     .leftJoin("users as u", "u.id", "a.actor_user_id")
@@ -27,6 +27,11 @@ export async function listAuditRows(
     .limit(opts.limit)
     .select("a.*", "u.display_name as actor_name");
   if (opts.beforeId) q.andWhere("a.id", "<", opts.beforeId);
+  if (opts.action) q.andWhereLike("a.action", `${opts.action}%`);
+  if (opts.from) q.andWhere("a.at", ">=", opts.from);
+  if (opts.to) q.andWhere("a.at", "<=", opts.to);
+  if (opts.objectType) q.andWhere("a.object_type", opts.objectType);
+  if (opts.objectId) q.andWhere("a.object_id", opts.objectId);
   return q;
 }
 

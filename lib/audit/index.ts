@@ -77,9 +77,9 @@ export async function verifyAuditChain(db: Db): Promise<number | null> {
 export async function listAuditTrail(
   db: Db,
   labId: number,
-  q: { limit: number; before?: number },
+  q: { limit: number; before?: number; action?: string; from?: string; to?: string; objectType?: string; objectId?: string },
 ): Promise<import("@/lib/schemas/audit").AuditEvent[]> {
-  const rows = await listAuditRows(db, { labId, limit: q.limit, beforeId: q.before });
+  const rows = await listAuditRows(db, { labId, limit: q.limit, beforeId: q.before, action: q.action, from: q.from, to: q.to, objectType: q.objectType, objectId: q.objectId });
   return rows.map((r) => ({
     id: r.id,
     at: r.at,
@@ -94,4 +94,13 @@ export async function listAuditTrail(
     reason: r.reason,
     hash: r.hash,
   }));
+}
+
+/** The trail as CSV (text cells escaped against spreadsheet formulas). */
+export function auditCsv(events: import("@/lib/schemas/audit").AuditEvent[], cell: (v: unknown) => string): string {
+  const head = "id,at_utc,who,action,object_type,object_id,object_version,reason,old_values,new_values,hash";
+  const rows = events.map((e) =>
+    [e.id, e.at, e.actorLabel ?? e.actorUserId, e.action, e.objectType, e.objectId, e.objectVersion, e.reason, e.oldValues == null ? "" : JSON.stringify(e.oldValues), e.newValues == null ? "" : JSON.stringify(e.newValues), e.hash].map(cell).join(","),
+  );
+  return [head, ...rows].join("\n") + "\n";
 }

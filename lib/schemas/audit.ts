@@ -3,6 +3,10 @@ import { z } from "zod";
 export const auditQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(500).default(100),
   before: z.coerce.number().int().positive().optional(),
+  action: z.string().max(64).optional(),
+  from: z.string().max(32).optional(),
+  to: z.string().max(32).optional(),
+  format: z.enum(["json", "csv"]).default("json"),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
 

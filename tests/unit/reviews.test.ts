@@ -119,3 +119,16 @@ describe("audit verification", () => {
     expect(bad).toEqual({ intact: false, first_broken_row: victim!.id });
   });
 });
+
+describe("audit trail export", () => {
+  it("filters by action and exports CSV with formula-safe text", async () => {
+    session.current = as.admin!;
+    const { GET } = await import("@/app/api/audit/route");
+    const json = await (await GET(new Request("http://halflight.test/api/audit?action=fit.&limit=50"), ctx())).json();
+    expect(json.events.length).toBeGreaterThan(0);
+    expect(json.events.every((e: { action: string }) => e.action.startsWith("fit."))).toBe(true);
+    const csv = await (await GET(new Request("http://halflight.test/api/audit?format=csv&action=comment."), ctx())).text();
+    expect(csv.split("\n")[0]).toBe("id,at_utc,who,action,object_type,object_id,object_version,reason,old_values,new_values,hash");
+    expect(csv).toMatch(/comment\.added/);
+  });
+});

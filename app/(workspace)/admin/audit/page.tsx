@@ -8,15 +8,33 @@ import { requirePageUser } from "@/lib/auth/page";
 
 export const metadata: Metadata = { title: "Audit trail" };
 
-export default async function AuditPage() {
+export default async function AuditPage({ searchParams }: { searchParams: Promise<{ action?: string; from?: string; to?: string }> }) {
   const user = await requirePageUser("audit:read", "/admin/audit");
-  const events = await listAuditTrail(await getDb(), user.labId, { limit: 200 });
+  const f = await searchParams;
+  const events = await listAuditTrail(await getDb(), user.labId, { limit: 200, action: f.action || undefined, from: f.from || undefined, to: f.to || undefined });
+  const csv = `/api/audit?${new URLSearchParams({ format: "csv", limit: "500", ...(f.action ? { action: f.action } : {}), ...(f.from ? { from: f.from } : {}), ...(f.to ? { to: f.to } : {}) })}`;
   return (
     <>
       <PageHeader
         title="Audit trail"
         lede="Append-only and hash-chained: rows are never changed or removed. Times are the server clock, in UTC."
       />
+      <form className="mb-4 flex flex-wrap items-end gap-3 text-sm" action="/admin/audit">
+        <label>
+          <span className="block font-semibold text-ink-700">Action starts with</span>
+          <input name="action" defaultValue={f.action} placeholder="fit." className="mt-1 h-9 w-48 rounded-cell border border-ink-300 bg-paper-raised px-3" />
+        </label>
+        <label>
+          <span className="block font-semibold text-ink-700">From (UTC)</span>
+          <input name="from" defaultValue={f.from} placeholder="2026-12-01" className="mt-1 h-9 w-36 rounded-cell border border-ink-300 bg-paper-raised px-3" />
+        </label>
+        <label>
+          <span className="block font-semibold text-ink-700">To (UTC)</span>
+          <input name="to" defaultValue={f.to} placeholder="2026-12-31" className="mt-1 h-9 w-36 rounded-cell border border-ink-300 bg-paper-raised px-3" />
+        </label>
+        <button className="h-9 rounded-cell border border-ink-300 px-3 font-semibold">Filter</button>
+        <a href={csv} className="ml-auto font-semibold text-quartz-700 underline">Export CSV</a>
+      </form>
       {events.length === 0 ? (
         <EmptyState title="No events yet">Sign-ins, changes and signatures in this lab will be listed here.</EmptyState>
       ) : (
