@@ -191,6 +191,19 @@ export interface DbShareViewRow {
   viewed_at: string;
 }
 
+export interface DbValidationRunRow {
+  id: number;
+  lab_id: number;
+  report: string;
+  all_passed: boolean | number;
+  passed: number;
+  failed: number;
+  engine_version: string;
+  content_hash: string;
+  run_by: number;
+  run_at: string;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -207,5 +220,6 @@ declare module "knex/types/tables" {
     comments: DbCommentRow;
     share_links: DbShareLinkRow;
     share_views: DbShareViewRow;
+    validation_runs: DbValidationRunRow;
   }
 }

@@ -58,6 +58,12 @@ export const AREAS: readonly Area[] = [
     purpose: "Every sign-in, change, signature and export in this lab, in order, with who, when and why.",
   },
   {
+    href: "/admin/validation",
+    label: "Validation",
+    permission: "validation:run",
+    purpose: "The engine checked on this installation against the reference problems it ships with, with a signed report.",
+  },
+  {
     href: "/admin/inbox",
     label: "Demo inbox",
     permission: "user:manage",

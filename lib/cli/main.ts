@@ -15,6 +15,7 @@ const USAGE = `Usage: npm run --silent cli -- <verb> FILE [options]
   fit FILE [--series NAME] (--model NAME | --formula EXPR) [--fix P=V]... [--start P=V]...
            [--interval SECONDS] --json      fit a kinetic model (time in seconds)
   arrhenius FILE --json                     activation energy and Eyring parameters
+  validate [--json] [--reference DIR]       the built-in validation run (exit 1 if a case fails)
 
 Models: ${MODEL_NAMES.join(", ")}
 `;
@@ -198,6 +199,18 @@ export async function runCli(argv: string[]): Promise<{ code: number; out?: stri
     } else if (verb === "fit") result = cmdFit(rest);
     else if (verb === "arrhenius") result = cmdArrhenius(rest);
     else if (verb === "ingest") result = await cmdIngest(rest);
+    else if (verb === "validate") {
+      const { values } = parseArgs({ args: rest, allowPositionals: false, options: { json: { type: "boolean" }, reference: { type: "string" } } });
+      const { runValidation } = await import("@/lib/validation");
+      const report = runValidation({ referenceDir: values.reference, onProgress: values.json ? undefined : (d, n, id) => process.stderr.write(`\r${d}/${n} ${id.padEnd(30)}`) });
+      if (!values.json) {
+        process.stderr.write("\n");
+        const lines = report.cases.filter((c) => !c.pass).map((c) => `FAIL ${c.id}: ours ${c.ours} against ${c.reference} (${c.threshold}; ${c.source})`);
+        const out = `${lines.join("\n")}${lines.length ? "\n" : ""}${report.passed} passed, ${report.failed} failed\n`;
+        return { code: report.all_passed ? 0 : 1, out };
+      }
+      return { code: report.all_passed ? 0 : 1, out: JSON.stringify(report, null, 2) + "\n" };
+    }
     else throw new CliError(`there is no verb "${verb}".\n\n${USAGE}`, 2);
     return { code: 0, out: JSON.stringify(result, null, 2) + "\n" };
   } catch (e) {

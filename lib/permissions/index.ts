@@ -32,6 +32,7 @@ export const PERMISSIONS = {
   // Administration.
   "user:manage": [D],
   "audit:read": [D],
+  "validation:run": [D],
   // Everyone signed in.
   "self:read": [A, M, R, D],
 } as const satisfies Record<string, readonly Role[]>;

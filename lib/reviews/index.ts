@@ -49,10 +49,11 @@ export async function reviewStatus(db: Knex, labId: number, fitId: number) {
 }
 export type ReviewStatus = Awaited<ReturnType<typeof reviewStatus>>;
 
-async function checkPassword(db: Knex, user: SignedInUser, password: string, act: string, fitId: number) {
+/** Signing asks for the password again (21 CFR 11.200); a wrong one is refused and audited. */
+export async function checkPassword(db: Knex, user: SignedInUser, password: string, act: string, objectId: number, objectType = "fit") {
   const row = await findUserById(db, user.userId);
   if (!row || !(await verifyPassword(password, row.password_hash))) {
-    await recordAudit(db, { labId: user.labId, actorUserId: user.userId, action: "signature.refused", objectType: "fit", objectId: fitId, reason: `wrong password when signing: ${act}` });
+    await recordAudit(db, { labId: user.labId, actorUserId: user.userId, action: "signature.refused", objectType, objectId, reason: `wrong password when signing: ${act}` });
     throw new AppError({ code: "unauthorized", message: "The password is not right: the signature was not made." });
   }
 }

@@ -101,6 +101,14 @@ const ROUTES: Record<string, RouteCase> = {
   // Any signed-in member may open a link; this token matches no link, so the answer is the link's own 404.
   "app/api/share/[token]/route.ts": { methods: { GET: { permission: "self:read", url: "/api/share/x", params: { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" }, ok: [404] } } },
   "app/api/fits/[id]/audit/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1/audit", params: { id: "1" } } } },
+  "app/api/validation/route.ts": {
+    methods: { GET: { permission: "validation:run", url: "/api/validation" }, POST: { permission: "validation:run", url: "/api/validation", ok: [201] } },
+  },
+  "app/api/validation/[id]/route.ts": { methods: { GET: { permission: "validation:run", url: "/api/validation/1", params: { id: "1" } } } },
+  "app/api/validation/[id]/sign/route.ts": {
+    methods: { POST: { permission: "validation:run", url: "/api/validation/1/sign", params: { id: "1" }, json: (r: Role | null) => ({ password: passwordOf(r) }) } },
+  },
+  "app/api/validation/[id]/report/route.ts": { methods: { GET: { permission: "validation:run", url: "/api/validation/1/report", params: { id: "1" } } } },
   "app/api/reviews/route.ts": { methods: { GET: { permission: "review:read", url: "/api/reviews" } } },
   "app/api/audit/verify/route.ts": { methods: { GET: { permission: "audit:read", url: "/api/audit/verify" } } },
   "app/api/studies/[id]/results/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/results", params: { id: "1" } } } },

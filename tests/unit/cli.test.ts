@@ -54,6 +54,29 @@ describe("npm run --silent cli (spawned, as outside checks run it)", () => {
   });
 });
 
+describe("cli validate", () => {
+  it("passes every case on this installation, and fails when a reference value is altered", () => {
+    const ok = cli("validate", "--json");
+    expect(ok.code, ok.err).toBe(0);
+    const report = JSON.parse(ok.out);
+    expect(report.all_passed).toBe(true);
+    expect(report.cases.length).toBeGreaterThan(250);
+    expect(report.reference_files.find((f: { file: string }) => f.file === "nist/Misra1a.dat").sha256).toMatch(/^[0-9a-f]{64}$/);
+
+    // A deliberately corrupted copy of the references: one certified value of Misra1a changed in its 4th digit.
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-validate-"));
+    fs.cpSync("fixtures/nist", path.join(dir, "nist"), { recursive: true });
+    fs.cpSync("fixtures/validation", path.join(dir, "validation"), { recursive: true });
+    const idx = JSON.parse(fs.readFileSync(path.join(dir, "nist/index.json"), "utf8"));
+    idx.datasets.Misra1a.certified[0] *= 1.001;
+    fs.writeFileSync(path.join(dir, "nist/index.json"), JSON.stringify(idx));
+    const bad = cli("validate", "--reference", dir);
+    expect(bad.code).not.toBe(0);
+    expect(bad.out).toMatch(/FAIL Misra1a b1/);
+    expect(bad.out).toMatch(/\d+ passed, [1-9]\d* failed/);
+  });
+});
+
 describe("cli verbs in-process", () => {
   const run = async (...a: string[]) => {
     const r = await runCli(a);

@@ -47,7 +47,7 @@ describe("migrations", () => {
     db = await freshDb();
     expect(await db.schema.hasTable("audit_events")).toBe(true);
     await rollbackAll(db);
-    for (const t of ["labs", "users", "memberships", "audit_events", "raw_files", "runs", "series", "fits", "studies", "signatures", "review_events", "comments", "share_links", "share_views"]) expect(await db.schema.hasTable(t)).toBe(false);
+    for (const t of ["labs", "users", "memberships", "audit_events", "raw_files", "runs", "series", "fits", "studies", "signatures", "review_events", "comments", "share_links", "share_views", "validation_runs"]) expect(await db.schema.hasTable(t)).toBe(false);
     await migrateToLatest(db);
     expect(await db.schema.hasTable("memberships")).toBe(true);
   });

@@ -20,6 +20,7 @@ const EXPECTED: Record<Permission, Role[]> = {
   "share:create": ["analyst", "method_developer", "reviewer", "admin"],
   "user:manage": ["admin"],
   "audit:read": ["admin"],
+  "validation:run": ["admin"],
   "self:read": ["analyst", "method_developer", "reviewer", "admin"],
 };
 

@@ -1,0 +1,150 @@
+"use client";
+// Run the validation, watch it run, read every case, sign the report, download it as PDF or JSON.
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import { Input } from "@/components/ui/field";
+import { Table, Td, Th } from "@/components/ui/table";
+import { useToast } from "@/components/ui/toast";
+import type { ValidationRecord } from "@/lib/validation/records";
+
+interface RunRow {
+  id: number;
+  all_passed: boolean;
+  passed: number;
+  failed: number;
+  engine_version: string;
+  run_at: string;
+  run_by_name: string;
+}
+
+export function ValidationWorkspace({ runs, record }: { runs: RunRow[]; record: ValidationRecord | null }) {
+  const router = useRouter();
+  const toast = useToast();
+  const [running, setRunning] = useState(false);
+  const [password, setPassword] = useState("");
+  const [onlyFailed, setOnlyFailed] = useState(false);
+
+  async function run() {
+    setRunning(true);
+    const res = await fetch("/api/validation", { method: "POST" });
+    const out = await res.json();
+    setRunning(false);
+    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    toast(`${out.passed} passed, ${out.failed} failed in ${out.seconds.toFixed(1)} s.`, out.all_passed ? "pass" : "fault");
+    router.push(`/admin/validation?run=${out.id}`);
+    router.refresh();
+  }
+  async function sign() {
+    if (!record) return;
+    const res = await fetch(`/api/validation/${record.id}/sign`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ password }) });
+    const out = await res.json();
+    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    setPassword("");
+    toast("Report signed.", "pass");
+    router.refresh();
+  }
+
+  const cases = record ? record.report.cases.filter((c) => !onlyFailed || !c.pass) : [];
+  return (
+    <div className="space-y-6">
+      <div className="flex flex-wrap items-center gap-4">
+        <Button onClick={run} disabled={running} data-testid="run-validation">
+          {running ? "Running…" : "Run the validation now"}
+        </Button>
+        {running && (
+          <div className="w-80" role="progressbar" aria-label="Validation running" aria-busy="true" data-testid="validation-progress">
+            <div className="h-2 w-full overflow-hidden rounded-full bg-ink-100">
+              <div className="h-full w-1/3 animate-pulse bg-quartz-600" />
+            </div>
+            <p className="mt-1 text-xs text-ink-500">Fitting 26 NIST problems, 5 published examples and 4 generated traces on the server (a few seconds)…</p>
+          </div>
+        )}
+      </div>
+      {runs.length > 0 && (
+        <section>
+          <h2 className="mb-2 text-lg font-semibold">Past runs</h2>
+          <ul className="flex flex-wrap gap-2 text-sm">
+            {runs.map((r) => (
+              <li key={r.id}>
+                <Link href={`/admin/validation?run=${r.id}`} className={`inline-flex items-center gap-2 rounded-cell border px-3 py-1 ${record?.id === r.id ? "border-quartz-600 bg-quartz-100" : "border-ink-300"}`}>
+                  Run {r.id} · {r.run_at.slice(0, 16).replace("T", " ")} UTC <Badge tone={r.all_passed ? "pass" : "fault"}>{r.all_passed ? "all passed" : `${r.failed} failed`}</Badge>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+      {record && (
+        <section className="space-y-4" aria-label={`Validation run ${record.id}`}>
+          <div className="rounded-cell bg-paper-raised p-5 shadow-lift">
+            <p className="text-lg font-semibold" data-testid="validation-summary">
+              Run {record.id}: {record.report.passed} passed, {record.report.failed} failed <Badge tone={record.report.all_passed ? "pass" : "fault"}>{record.report.all_passed ? "PASS" : "FAIL"}</Badge>
+            </p>
+            <p className="text-sm text-ink-500">
+              {record.report.engine_version} · Node {record.report.node} · {record.report.platform} · {record.report.started_at.replace("T", " ").slice(0, 19)} UTC · {record.run_by} · {record.report.seconds.toFixed(1)} s
+            </p>
+            <p className="font-mono text-xs text-ink-500">report content hash {record.content_hash}</p>
+            <div className="mt-3 flex flex-wrap items-end gap-3">
+              <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 px-3 text-sm font-semibold" href={`/api/validation/${record.id}/report`} data-testid="validation-pdf">
+                PDF report
+              </a>
+              <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 px-3 text-sm font-semibold" href={`/api/validation/${record.id}/report?format=json`}>
+                JSON
+              </a>
+              {record.signatures.length === 0 ? (
+                <>
+                  <div className="w-56">
+                    <Input label="Your password, to sign" type="password" value={password} onChange={(e) => setPassword(e.target.value)} />
+                  </div>
+                  <Button variant="secondary" onClick={sign} disabled={!password}>
+                    Sign the report
+                  </Button>
+                </>
+              ) : (
+                record.signatures.map((s) => (
+                  <p key={s.signed_at} className="text-sm">
+                    Signed by <strong>{s.printed_name}</strong> ({s.meaning}) {s.signed_at.replace("T", " ").slice(0, 19)} UTC{s.void ? " · VOID" : ""}
+                  </p>
+                ))
+              )}
+            </div>
+          </div>
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" checked={onlyFailed} onChange={(e) => setOnlyFailed(e.target.checked)} /> Show failed cases only
+          </label>
+          <Table caption="Validation cases">
+            <thead>
+              <tr>
+                <Th>Result</Th>
+                <Th>Case</Th>
+                <Th numeric>Ours</Th>
+                <Th numeric>Reference</Th>
+                <Th numeric>LRE</Th>
+                <Th>Threshold</Th>
+                <Th>Source</Th>
+              </tr>
+            </thead>
+            <tbody data-testid="validation-cases">
+              {cases.map((c) => (
+                <tr key={c.id}>
+                  <Td>
+                    <Badge tone={c.pass ? "pass" : "fault"}>{c.pass ? "pass" : "FAIL"}</Badge>
+                  </Td>
+                  <Td className="font-mono text-xs">{c.id}</Td>
+                  <Td numeric>{c.ours === null ? "—" : c.ours.toPrecision(10)}</Td>
+                  <Td numeric>{c.reference}</Td>
+                  <Td numeric>{c.lre === null ? "—" : c.lre.toFixed(1)}</Td>
+                  <Td className="text-xs">{c.threshold}</Td>
+                  <Td className="text-xs text-ink-500">{c.source}</Td>
+                </tr>
+              ))}
+            </tbody>
+          </Table>
+        </section>
+      )}
+    </div>
+  );
+}
