@@ -95,7 +95,6 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const [epsilon, setEpsilon] = useState<string>(o?.conversion ? String(o.conversion.epsilon) : "");
   const [pathLength, setPathLength] = useState<string>(o?.conversion ? String(o.conversion.pathLengthCm) : String(run.path_length_cm ?? 1));
   const [perMinute, setPerMinute] = useState(true);
-  const [pending, setPending] = useState<number | null>(null);
   const [reason, setReason] = useState("");
   const [title, setTitle] = useState(from?.title ?? `${run.name} · ${series.name}`);
   const [saveReason, setSaveReason] = useState("");
@@ -103,7 +102,8 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const [formula, setFormula] = useState<string>(o?.formula ?? "");
   const [startsText, setStartsText] = useState<string>(Object.entries(o?.starts ?? {}).map(([k, v]) => `${k}=${v}`).join(", "));
   const [selected, setSelected] = useState<number[]>([]);
-  const [pendingMany, setPendingMany] = useState<number[] | null>(null);
+  /** The points waiting for a reason before they are excluded (one clicked, or a box selection). */
+  const [pending, setPending] = useState<number[] | null>(null);
   const [rateAt, setRateAt] = useState<string>("");
 
   const num = (s: string) => (s.trim() === "" ? null : Number(s.replace(",", ".")));
@@ -152,7 +152,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
       toast(`Point ${index + 1} restored.`, "info");
     } else {
       setReason("");
-      setPending(index);
+      setPending([index]);
     }
   }
 
@@ -264,7 +264,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           {selected.length > 0 && (
             <div className="mt-2 flex flex-wrap items-center gap-2 rounded-cell bg-quartz-100 px-3 py-2 text-sm" data-testid="selection-bar">
               <span>{selected.length} point(s) selected</span>
-              <Button size="sm" variant="secondary" onClick={() => { setReason(""); setPendingMany(selected); }}>
+              <Button size="sm" variant="secondary" onClick={() => { setReason(""); setPending(selected); }}>
                 Exclude them…
               </Button>
               <Button
@@ -400,7 +400,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
               ))}
             </ul>
           )}
-          <ExcludeByNumber n={points.t.length} excluded={excludedSet} onPick={(i) => { setReason(""); setPending(i); }} />
+          <ExcludeByNumber n={points.t.length} excluded={excludedSet} onPick={(i) => { setReason(""); setPending([i]); }} />
         </fieldset>
         {canSave ? (
           <fieldset className="space-y-3 rounded-cell bg-paper-raised p-4 shadow-lift">
@@ -417,45 +417,28 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
         )}
       </aside>
 
-      <Dialog open={pendingMany !== null} onClose={() => setPendingMany(null)} title={`Exclude ${pendingMany?.length ?? 0} selected points`}>
+      <Dialog
+        open={pending !== null}
+        onClose={() => setPending(null)}
+        title={pending?.length === 1 ? `Exclude point ${pending[0]! + 1}` : `Exclude ${pending?.length ?? 0} selected points`}
+      >
         <form
           onSubmit={(e) => {
             e.preventDefault();
-            if (!pendingMany || reason.trim().length < 3) return;
-            const add = pendingMany.filter((i) => !excludedSet.has(i)).map((index) => ({ index, reason: reason.trim() }));
+            if (!pending || reason.trim().length < 3) return;
+            const add = pending.filter((i) => !excludedSet.has(i)).map((index) => ({ index, reason: reason.trim() }));
             setExclusions([...exclusions, ...add].sort((a, b) => a.index - b.index));
-            setPendingMany(null);
+            setPending(null);
             setSelected([]);
           }}
           className="space-y-4"
         >
-          <p className="text-sm">Each point stays in the record, greyed, with this reason.</p>
-          <Input label="Reason for all of them (required)" value={reason} onChange={(e) => setReason(e.target.value)} autoFocus minLength={3} required />
-          <div className="flex justify-end gap-2">
-            <Button variant="secondary" onClick={() => setPendingMany(null)}>
-              Cancel
-            </Button>
-            <Button type="submit" disabled={reason.trim().length < 3}>
-              Exclude
-            </Button>
-          </div>
-        </form>
-      </Dialog>
-      <Dialog open={pending !== null} onClose={() => setPending(null)} title={pending !== null ? `Exclude point ${pending + 1}` : "Exclude a point"}>
-        <form
-          onSubmit={(e) => {
-            e.preventDefault();
-            if (pending === null || reason.trim().length < 3) return;
-            setExclusions([...exclusions, { index: pending, reason: reason.trim() }].sort((a, b) => a.index - b.index));
-            setPending(null);
-          }}
-          className="space-y-4"
-        >
-          {pending !== null && (
-            <p className="text-sm">
-              t = {formatNumber(points.t[pending]! / tScale, 5)} {perMinute ? "min" : "s"}, y = {formatNumber(points.y[pending]!, 5)}. The point stays in the record, greyed, with your reason.
-            </p>
-          )}
+          <p className="text-sm">
+            {pending?.length === 1
+              ? `t = ${formatNumber(points.t[pending[0]!]! / tScale, 5)} ${perMinute ? "min" : "s"}, y = ${formatNumber(points.y[pending[0]!]!, 5)}. `
+              : ""}
+            Each point stays in the record, greyed, with your reason.
+          </p>
           <Input label="Reason (required)" value={reason} onChange={(e) => setReason(e.target.value)} autoFocus minLength={3} required />
           <div className="flex justify-end gap-2">
             <Button variant="secondary" onClick={() => setPending(null)}>

@@ -1,4 +1,5 @@
 // Fit record versions.
+import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbFitRow } from "@/db/tables";
 
@@ -6,7 +7,7 @@ export type NewFit = Omit<DbFitRow, "id">;
 
 export async function insertFitVersion(db: Db, row: NewFit): Promise<number> {
   const [r] = await db("fits").insert(row).returning("id");
-  const id = typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r);
+  const id = insertedId(r);
   if (row.record_id === null) await db("fits").where({ id }).update({ record_id: id });
   return id;
 }

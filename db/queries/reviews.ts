@@ -1,22 +1,21 @@
 // Signatures, review events and comments on record versions.
+import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbCommentRow, DbReviewEventRow, DbSignatureRow } from "@/db/tables";
 
-const idOf = (r: unknown) => (typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r));
-
 export async function insertSignature(db: Db, row: Omit<DbSignatureRow, "id">): Promise<number> {
   const [r] = await db("signatures").insert(row).returning("id");
-  return idOf(r);
+  return insertedId(r);
 }
 
 export async function insertReviewEvent(db: Db, row: Omit<DbReviewEventRow, "id">): Promise<number> {
   const [r] = await db("review_events").insert(row).returning("id");
-  return idOf(r);
+  return insertedId(r);
 }
 
 export async function insertComment(db: Db, row: Omit<DbCommentRow, "id">): Promise<number> {
   const [r] = await db("comments").insert(row).returning("id");
-  return idOf(r);
+  return insertedId(r);
 }
 
 export async function reviewEventsOf(db: Db, labId: number, objectType: string, objectId: number) {

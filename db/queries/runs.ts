@@ -1,4 +1,5 @@
 // Raw files, runs and series. Points travel as little-endian float64 BLOBs (one per series and axis).
+import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbRawFileRow, DbRunRow, DbSeriesRow } from "@/db/tables";
 
@@ -23,11 +24,6 @@ export function unpackF64(buf: Buffer | Uint8Array): Float64Array {
   return out;
 }
 
-/** Knex's `returning("id")` gives `{ id }` on SQLite and PostgreSQL; older drivers give the bare number. */
-function idOf(r: unknown): number {
-  return typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r);
-}
-
 export type NewRawFile = Omit<DbRawFileRow, "id">;
 export type NewRun = Omit<DbRunRow, "id">;
 export type NewSeries = Omit<DbSeriesRow, "id">;
@@ -42,17 +38,17 @@ export async function getRawFile(db: Db, labId: number, id: number): Promise<DbR
 
 export async function insertRawFile(db: Db, row: NewRawFile): Promise<number> {
   const [r] = await db("raw_files").insert(row).returning("id");
-  return idOf(r);
+  return insertedId(r);
 }
 
 export async function insertRun(db: Db, row: NewRun): Promise<number> {
   const [r] = await db("runs").insert(row).returning("id");
-  return idOf(r);
+  return insertedId(r);
 }
 
 export async function insertSeries(db: Db, row: NewSeries): Promise<number> {
   const [r] = await db("series").insert(row).returning("id");
-  return idOf(r);
+  return insertedId(r);
 }
 
 export async function findRunsOfRawFile(db: Db, labId: number, rawFileId: number): Promise<DbRunRow[]> {

@@ -1,10 +1,11 @@
 // Share links and their views.
+import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbShareLinkRow } from "@/db/tables";
 
 export async function insertShareLink(db: Db, row: Omit<DbShareLinkRow, "id">): Promise<number> {
   const [r] = await db("share_links").insert(row).returning("id");
-  return typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r);
+  return insertedId(r);
 }
 
 export async function findShareLinkByTokenHash(db: Db, tokenSha256: string): Promise<DbShareLinkRow | undefined> {

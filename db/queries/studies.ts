@@ -1,10 +1,11 @@
 // Study versions.
+import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbStudyRow } from "@/db/tables";
 
 export async function insertStudyVersion(db: Db, row: Omit<DbStudyRow, "id">): Promise<number> {
   const [r] = await db("studies").insert(row).returning("id");
-  const id = typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r);
+  const id = insertedId(r);
   if (row.record_id === null) await db("studies").where({ id }).update({ record_id: id });
   return id;
 }

@@ -1,10 +1,11 @@
 // Stored validation runs.
+import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbValidationRunRow } from "@/db/tables";
 
 export async function insertValidationRun(db: Db, row: Omit<DbValidationRunRow, "id">): Promise<number> {
   const [r] = await db("validation_runs").insert(row).returning("id");
-  return typeof r === "object" && r !== null ? Number((r as { id: unknown }).id) : Number(r);
+  return insertedId(r);
 }
 
 export async function getValidationRun(db: Db, labId: number, id: number) {

@@ -37,3 +37,12 @@ export async function signIn(page: Page, baseURL: string, email: string, passwor
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
 }
+
+/** A fresh browser with a page signed in as the user (the set-up every browser test starts from). */
+export async function signedInPage(baseURL: string, user: { email: string; password: string }): Promise<{ page: Page; close: () => Promise<void> }> {
+  const { context, close } = await openBrowser();
+  const page = await context.newPage();
+  await signIn(page, baseURL, user.email, user.password);
+  await page.getByTestId("workspace-nav").waitFor();
+  return { page, close };
+}

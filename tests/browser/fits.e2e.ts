@@ -2,23 +2,18 @@
 // point with a reason, fix A∞, save version 2, see it listed with the exclusion and its reason, and check the CSV's k.
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { BrowserContext, Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { formatWithUncertainty } from "@/lib/format/number";
-import { openBrowser, signIn } from "./chromium";
+import { signedInPage } from "./chromium";
 
 const baseURL = inject("baseURL");
 const artifacts = inject("artifacts");
-let context: BrowserContext;
 let close: () => Promise<void>;
 let page: Page;
 
 beforeAll(async () => {
-  ({ context, close } = await openBrowser());
-  page = await context.newPage();
-  const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
-  await signIn(page, baseURL, analyst.email, analyst.password);
-  await page.getByTestId("workspace-nav").waitFor();
+  ({ page, close } = await signedInPage(baseURL, DEMO_USERS.find((u) => u.role === "analyst")!));
 });
 afterAll(async () => {
   await close();

@@ -7,7 +7,7 @@ import { simpleParser } from "mailparser";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
-import { openBrowser, signIn } from "./chromium";
+import { signedInPage } from "./chromium";
 
 const baseURL = inject("baseURL");
 const artifacts = inject("artifacts");
@@ -18,11 +18,8 @@ let a: Page, r: Page;
 
 beforeAll(async () => {
   for (const [u, set] of [[analyst, (p: Page) => (a = p)], [reviewer, (p: Page) => (r = p)]] as const) {
-    const { context, close } = await openBrowser();
+    const { page, close } = await signedInPage(baseURL, u);
     closers.push(close);
-    const page = await context.newPage();
-    await signIn(page, baseURL, u.email, u.password);
-    await page.getByTestId("workspace-nav").waitFor();
     set(page);
   }
 });

@@ -3,24 +3,19 @@
 import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { BrowserContext, Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
-import { openBrowser, signIn } from "./chromium";
+import { signedInPage } from "./chromium";
 
 const baseURL = inject("baseURL");
 const artifacts = inject("artifacts");
 const FIX = path.resolve("parsers/delimited/fixtures");
 const FILES = ["cv-semicolon-decimal-comma.csv", "cv-tab-mmss.txt"];
-let context: BrowserContext;
 let close: () => Promise<void>;
 let page: Page;
 
 beforeAll(async () => {
-  ({ context, close } = await openBrowser());
-  page = await context.newPage();
-  const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
-  await signIn(page, baseURL, analyst.email, analyst.password);
-  await page.getByTestId("workspace-nav").waitFor();
+  ({ page, close } = await signedInPage(baseURL, DEMO_USERS.find((u) => u.role === "analyst")!));
 });
 afterAll(async () => {
   await close();

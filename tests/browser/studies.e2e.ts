@@ -2,22 +2,17 @@
 // t90 at 25 °C with the caution, correct one member's temperature with a reason and get a new version.
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { BrowserContext, Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
-import { openBrowser, signIn } from "./chromium";
+import { signedInPage } from "./chromium";
 
 const baseURL = inject("baseURL");
 const artifacts = inject("artifacts");
-let context: BrowserContext;
 let close: () => Promise<void>;
 let page: Page;
 
 beforeAll(async () => {
-  ({ context, close } = await openBrowser());
-  page = await context.newPage();
-  const u = DEMO_USERS.find((x) => x.role === "method_developer")!;
-  await signIn(page, baseURL, u.email, u.password);
-  await page.getByTestId("workspace-nav").waitFor();
+  ({ page, close } = await signedInPage(baseURL, DEMO_USERS.find((u) => u.role === "method_developer")!));
 });
 afterAll(async () => {
   await close();

@@ -4,22 +4,18 @@ import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { BrowserContext, Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
-import { openBrowser, signIn } from "./chromium";
+import { signedInPage } from "./chromium";
 
 const baseURL = inject("baseURL");
 const artifacts = inject("artifacts");
 const admin = DEMO_USERS.find((u) => u.role === "admin")!;
-let context: BrowserContext;
 let close: () => Promise<void>;
 let page: Page;
 
 beforeAll(async () => {
-  ({ context, close } = await openBrowser());
-  page = await context.newPage();
-  await signIn(page, baseURL, admin.email, admin.password);
-  await page.getByTestId("workspace-nav").waitFor();
+  ({ page, close } = await signedInPage(baseURL, DEMO_USERS.find((u) => u.role === "admin")!));
 });
 afterAll(async () => {
   await close();
