@@ -68,6 +68,8 @@ describe("review sequence", () => {
     session.current = as.reviewer!;
     const wrong = await post("decision", fitId, { decision: "approved", password: "guess" });
     expect(wrong.status).toBe(401);
+    const refused = await db("audit_events").where({ action: "signature.refused" }).orderBy("id");
+    expect(refused.at(-1)).toMatchObject({ actor_user_id: as.reviewer!.userId, reason: "wrong password when signing: approved" });
     const noReason = await post("decision", fitId, { decision: "rejected", password: pw("reviewer") });
     expect(noReason.status).toBe(422);
     await post("comments", fitId, { body: "A∞ agrees with the measured 0.040 within its CI." });
