@@ -86,3 +86,11 @@ export async function listLabMembers(db: Db, labId: number): Promise<LabMemberRo
     .orderBy("u.display_name")
     .select("u.id as user_id", "u.email", "u.display_name", "m.role", "u.disabled", "u.locked_until", "u.failed_sign_ins");
 }
+
+export async function setUserDisabled(db: Db, userId: number, disabled: boolean): Promise<void> {
+  await db("users").where({ id: userId }).update({ disabled });
+}
+
+export async function setMembershipRole(db: Db, userId: number, labId: number, role: Role): Promise<void> {
+  await db("memberships").where({ user_id: userId, lab_id: labId }).update({ role });
+}

@@ -36,6 +36,10 @@ const PUBLIC = new Set(["app/api/auth/[...nextauth]/route.ts"]);
 const ROUTES: Record<string, RouteCase> = {
   "app/api/me/route.ts": { methods: { GET: { permission: "self:read", url: "/api/me" } } },
   "app/api/admin/members/route.ts": { methods: { GET: { permission: "user:manage", url: "/api/admin/members" } } },
+  // The admin unlocks the lockout-free analyst (user 3): a harmless, audited change.
+  "app/api/admin/members/[userId]/route.ts": {
+    methods: { POST: { permission: "user:manage", url: "/api/admin/members/3", params: { userId: "3" }, json: { action: "unlock", reason: "matrix test" } } },
+  },
   "app/api/audit/route.ts": { methods: { GET: { permission: "audit:read", url: "/api/audit?limit=5" } } },
   "app/api/uploads/route.ts": { methods: { POST: { permission: "run:upload", url: "/api/uploads", form: cvForm } } },
   "app/api/runs/route.ts": {

@@ -1,11 +1,12 @@
 import type { Metadata } from "next";
+import { MemberActions } from "@/components/admin/member-actions";
 import { PageHeader } from "@/components/shell/page-header";
 import { Badge } from "@/components/ui/badge";
 import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
 import { listMembers } from "@/lib/admin/members";
 import { requirePageUser } from "@/lib/auth/page";
-import { ROLE_LABELS } from "@/lib/permissions";
+import { ROLE_LABELS, ROLES } from "@/lib/permissions";
 
 export const metadata: Metadata = { title: "Lab members" };
 
@@ -23,6 +24,7 @@ export default async function MembersPage() {
             <Th>E-mail</Th>
             <Th>Role</Th>
             <Th>Account</Th>
+            <Th>Actions</Th>
           </tr>
         </thead>
         <tbody>
@@ -42,12 +44,19 @@ export default async function MembersPage() {
                     <Badge tone="pass">Active</Badge>
                   )}
                 </Td>
+                <Td>
+                  <MemberActions
+                    member={{ userId: m.userId, name: m.name, role: m.role, disabled: m.disabled, locked: Boolean(locked) }}
+                    roles={ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))}
+                    self={m.userId === user.userId}
+                  />
+                </Td>
               </tr>
             );
           })}
         </tbody>
       </Table>
-      <p className="mt-4 text-sm text-ink-500">Not built yet: invitations and role changes.</p>
+      <p className="mt-4 text-sm text-ink-500">Not built yet: invitations by e-mail. Accounts are never deleted: deactivate them.</p>
     </>
   );
 }
