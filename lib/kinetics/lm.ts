@@ -100,34 +100,26 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
   const grad = new Float64Array(pf);
   const factor = (): boolean => {
     problem.jacobian(x, Jfull);
-    // With the normal equations the Gram pass gives the column norms and the gradient too; skip a pass over J.
-    const gram = opts.solver === "normal-equations" && work.length === pf ? gramFactor(Jfull, n, freeIndex, r) : null;
-    if (gram) {
-      for (let k = 0; k < pf; k++) {
-        colNorm[k] = Math.sqrt(gram.G[k * pf + k]!);
-        D[k] = Math.max(D[k]!, colNorm[k]!) || 1;
-        grad[k] = gram.g[k]!;
-      }
-      const held = freeIndex.some((j, k) => (x[j] === lower[j] && grad[k]! > 0) || (x[j] === upper[j] && grad[k]! < 0));
-      if (!held) {
-        R = gram.R;
-        qtr = gram.qtb;
-        return R.every(Number.isFinite);
-      }
-    }
+    // Column norms and the gradient: from the Gram pass when the normal equations are in use (it computes them
+    // anyway), otherwise from one pass over J.
+    const gram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, freeIndex, r) : null;
     for (let k = 0; k < pf; k++) {
-      const src = freeIndex[k]! * n;
       let s = 0,
         g = 0;
-      for (let i = 0; i < n; i++) {
-        const v = Jfull[src + i]!;
-        s += v * v;
-        g += v * r[i]!;
+      if (gram) {
+        s = gram.G[k * pf + k]!;
+        g = gram.g[k]!;
+      } else {
+        const src = freeIndex[k]! * n;
+        for (let i = 0; i < n; i++) {
+          const v = Jfull[src + i]!;
+          s += v * v;
+          g += v * r[i]!;
+        }
       }
       if (!Number.isFinite(s) || !Number.isFinite(g)) return false;
       colNorm[k] = Math.sqrt(s);
-      D[k] = Math.max(D[k]!, colNorm[k]!);
-      if (D[k] === 0) D[k] = 1;
+      D[k] = Math.max(D[k]!, colNorm[k]!) || 1;
       grad[k] = g;
     }
     work = [];
@@ -139,17 +131,12 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
     }
     pw = work.length;
     const cols = work.map((k) => freeIndex[k]!);
-    const fromGram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, cols, r) : null;
-    if (fromGram) {
-      R = fromGram.R;
-      qtr = fromGram.qtb;
-    } else {
-      const qr = streamingQR(Jfull, n, cols, r);
-      R = qr.R;
-      qtr = qr.qtb;
-    }
-    for (let i = 0; i < R.length; i++) if (!Number.isFinite(R[i]!)) return false;
-    return true;
+    // The Gram factor of all free columns serves as it is when nothing is held on a bound.
+    const factored = gram && pw === pf ? gram : opts.solver === "normal-equations" ? gramFactor(Jfull, n, cols, r) : null;
+    const { R: Rw, qtb } = factored ?? streamingQR(Jfull, n, cols, r);
+    R = Rw;
+    qtr = qtb;
+    return R.every(Number.isFinite);
   };
 
   /** Largest cosine between r and a working Jacobian column (the projected gradient test). */
