@@ -3,17 +3,13 @@
 import type { Knex } from "knex";
 import { LTTB } from "downsample";
 import { getRawFile, getRun, getSeriesWithPoints, listRuns, listSeriesOfRun, unpackF64 } from "@/db/queries/runs";
-import type { DbRunRow } from "@/db/tables";
 import { AppError } from "@/lib/errors";
-import type { RunDetail, RunListQuery, RunSummary, SeriesSummary } from "@/lib/schemas/runs";
+import type { RunDetail, RunFields, RunListQuery, RunSummary, SeriesSummary } from "@/lib/schemas/runs";
 
 /** Points sent to a plot unless more are asked for; fits always read every point. */
 export const DISPLAY_POINTS = 2000;
 
-type RunRowLike = Pick<
-  DbRunRow,
-  "id" | "name" | "study" | "parser" | "wavelength_nm" | "path_length_cm" | "temperature_c" | "cell" | "operator" | "sample" | "method" | "dilution_factor" | "raw_file_id" | "created_at"
-> & { raw_file_name: string; raw_file_sha256: string; created_by_name: string | null };
+type RunRowLike = RunFields & { raw_file_id: number; raw_file_name: string; raw_file_sha256: string; created_by_name: string | null };
 
 function summary(r: RunRowLike, seriesCount: number, size?: number): RunSummary {
   return {

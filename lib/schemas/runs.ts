@@ -1,5 +1,6 @@
 // One schema per resource: runs, their mapping at upload, the list query.
 import { z } from "zod";
+import type { DbRunRow } from "@/db/tables";
 
 const optionalNumber = z.number().finite().nullable().optional();
 const optionalText = z.string().trim().max(200).nullable().optional();
@@ -58,22 +59,15 @@ export const seriesPointsQuerySchema = z.object({
   full: z.enum(["1", "true"]).optional(),
 });
 
-export interface RunSummary {
-  id: number;
-  name: string;
-  study: string | null;
-  parser: string;
-  wavelength_nm: number | null;
-  path_length_cm: number | null;
-  temperature_c: number | null;
-  cell: string | null;
-  operator: string | null;
-  sample: string | null;
-  method: string | null;
-  dilution_factor: number | null;
+/** The run columns the API shows, as stored (the row type is the one source of their names and types). */
+export type RunFields = Pick<
+  DbRunRow,
+  "id" | "name" | "study" | "parser" | "wavelength_nm" | "path_length_cm" | "temperature_c" | "cell" | "operator" | "sample" | "method" | "dilution_factor" | "created_at"
+>;
+
+export interface RunSummary extends RunFields {
   series_count: number;
   raw_file: { id: number; name: string; sha256: string; size?: number };
-  created_at: string;
   created_by: string | null;
 }
 
