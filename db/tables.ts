@@ -70,6 +70,7 @@ export interface DbRunRow {
   sample: string | null;
   method: string | null;
   dilution_factor: number | null;
+  method_record_id: number | null;
   metadata: string;
   warnings: string;
   created_by: number | null;
@@ -106,6 +107,7 @@ export interface DbFitRow {
   primary_model: string;
   k_value: number | null;
   k_se: number | null;
+  criteria_failed: number | null;
   state: string;
   options: string;
   results: string;
@@ -204,6 +206,77 @@ export interface DbValidationRunRow {
   run_at: string;
 }
 
+export interface DbCalibrationRow {
+  id: number;
+  lab_id: number;
+  name: string;
+  analyte: string;
+  concentration_unit: string;
+  wavelength_nm: number | null;
+  standards: string;
+  options: string;
+  results: string;
+  slope: number;
+  lod: number;
+  loq: number;
+  engine_version: string;
+  content_hash: string;
+  author_id: number;
+  created_at: string;
+}
+
+export interface DbMethodRow {
+  id: number;
+  lab_id: number;
+  record_id: number | null;
+  version: number;
+  previous_id: number | null;
+  name: string;
+  analyte: string;
+  definition: string;
+  calibration_id: number | null;
+  content_hash: string;
+  reason: string | null;
+  author_id: number;
+  created_at: string;
+}
+
+export interface DbLabSettingsRow {
+  lab_id: number;
+  outside_links: boolean | number;
+  default_link_days: number;
+  upload_limit_mb: number;
+  password_min_length: number;
+  updated_at: string;
+}
+
+export interface DbInvitationRow {
+  id: number;
+  lab_id: number;
+  email: string;
+  display_name: string;
+  role: Role;
+  token_hash: string;
+  expires_at: string;
+  accepted_at: string | null;
+  revoked_at: string | null;
+  user_id: number | null;
+  invited_by: number;
+  created_at: string;
+}
+
+export interface DbApiKeyRow {
+  id: number;
+  lab_id: number;
+  name: string;
+  prefix: string;
+  key_hash: string;
+  created_by: number;
+  created_at: string;
+  last_used_at: string | null;
+  revoked_at: string | null;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -221,5 +294,10 @@ declare module "knex/types/tables" {
     share_links: DbShareLinkRow;
     share_views: DbShareViewRow;
     validation_runs: DbValidationRunRow;
+    calibrations: DbCalibrationRow;
+    methods: DbMethodRow;
+    lab_settings: DbLabSettingsRow;
+    invitations: DbInvitationRow;
+    api_keys: DbApiKeyRow;
   }
 }

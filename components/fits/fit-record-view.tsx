@@ -106,7 +106,12 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
             {rec.options.window && <li>Window: {rec.options.window.from ?? "start"} – {rec.options.window.to ?? "end"} s</li>}
             {Object.entries(rec.options.fixed ?? {}).map(([k2, v]) => <li key={k2}>{k2} fixed at {v}</li>)}
             {(rec.options.exclusions ?? []).map((e) => <li key={e.index}>Point {e.index + 1} excluded: “{e.reason}”</li>)}
-            {rec.options.conversion && <li>Beer–Lambert: ε {rec.options.conversion.epsilon} L mol⁻¹ cm⁻¹, b {rec.options.conversion.pathLengthCm} cm</li>}
+            {rec.options.conversion?.kind === "beer-lambert" && <li>Beer–Lambert: ε {rec.options.conversion.epsilon} L mol⁻¹ cm⁻¹, b {rec.options.conversion.pathLengthCm} cm</li>}
+            {rec.options.conversion?.kind === "calibration" && (
+              <li>
+                Calibration {rec.options.conversion.calibrationId}: c = (A − {formatNumber(rec.options.conversion.intercept)}) / {formatNumber(rec.options.conversion.slope)} ({rec.options.conversion.unit})
+              </li>
+            )}
             {!rec.options.window && !rec.options.exclusions?.length && !rec.options.fixed && <li>Every point, nothing fixed.</li>}
           </ul>
         </section>

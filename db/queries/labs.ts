@@ -19,3 +19,7 @@ export async function countLabs(db: Db): Promise<number> {
   const row = await db("labs").count<{ n: number | string }[]>({ n: "*" }).first();
   return Number(row?.n ?? 0);
 }
+
+export async function findLabById(db: Db, id: number): Promise<DbLabRow | undefined> {
+  return db("labs").where({ id }).first();
+}

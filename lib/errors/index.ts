@@ -25,13 +25,16 @@ export class AppError extends Error {
   readonly code: ErrorCode;
   readonly issues?: ErrorIssue[];
   readonly line?: number;
+  /** Seconds, sent as Retry-After with a 429. */
+  readonly retryAfter?: number;
 
-  constructor(opts: { code: ErrorCode; message: string; issues?: ErrorIssue[]; line?: number; cause?: unknown }) {
+  constructor(opts: { code: ErrorCode; message: string; issues?: ErrorIssue[]; line?: number; retryAfter?: number; cause?: unknown }) {
     super(opts.message, { cause: opts.cause });
     this.name = "AppError";
     this.code = opts.code;
     this.issues = opts.issues;
     this.line = opts.line;
+    this.retryAfter = opts.retryAfter;
   }
 
   get status(): number {

@@ -4,27 +4,25 @@ import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { getFit, insertFitVersion, latestVersion, listLatestFits, listVersions } from "@/db/queries/fits";
 import { recordAudit } from "@/lib/audit";
+import { canonicalJson } from "./canonical";
 import { AppError } from "@/lib/errors";
-import { ENGINE_VERSION, fitSeriesWithOptions, type SeriesFitOutcome } from "@/lib/kinetics";
+import { getRun } from "@/db/queries/runs";
+import { ENGINE_VERSION, evaluateCriteria, fitSeriesWithOptions, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
+import { calibrationConversion, getCalibration, methodForRun } from "@/lib/methods";
 import { readSeries } from "@/lib/runs";
 import type { FitOptions, SaveFitInput } from "@/lib/schemas/fits";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 
-/** JSON with sorted keys, so equal content always hashes equally. */
-export function canonicalJson(v: unknown): string {
-  if (Array.isArray(v)) return `[${v.map(canonicalJson).join(",")}]`;
-  if (v && typeof v === "object")
-    return `{${Object.keys(v as Record<string, unknown>)
-      .filter((k) => (v as Record<string, unknown>)[k] !== undefined)
-      .sort()
-      .map((k) => `${JSON.stringify(k)}:${canonicalJson((v as Record<string, unknown>)[k])}`)
-      .join(",")}}`;
-  return JSON.stringify(v ?? null);
-}
+export { canonicalJson };
 
 const sha = (s: string | Buffer) => createHash("sha256").update(s).digest("hex");
 
-export type StoredResults = Omit<SeriesFitOutcome, "curves" | "included"> & { excluded_indices: number[] };
+/** A fit of a run with a method: the method version that judged it and the verdict per criterion. */
+export interface MethodEvaluation extends CriteriaEvaluation {
+  method: { id: number; record_id: number; version: number; name: string; content_hash: string };
+}
+
+export type StoredResults = Omit<SeriesFitOutcome, "curves" | "included"> & { excluded_indices: number[]; method_evaluation?: MethodEvaluation };
 
 function storedResults(out: SeriesFitOutcome): StoredResults {
   const { curves: _c, included, ...rest } = out;
@@ -59,6 +57,19 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
   if ((input.options.exclusions ?? []).some((e) => e.index >= outcome.included.length))
     throw new AppError({ code: "unprocessable", message: "An excluded point is beyond the end of the series." });
   const results = storedResults(outcome);
+  const run = await getRun(db, user.labId, input.runId);
+  const method = await methodForRun(db, user.labId, run?.method_record_id ?? null);
+  const conv = input.options.conversion;
+  if (conv?.kind === "calibration") {
+    const cal = await getCalibration(db, user.labId, conv.calibrationId);
+    const expected = calibrationConversion(cal);
+    if (expected.slope !== conv.slope || expected.intercept !== conv.intercept || expected.seSlope !== conv.seSlope || expected.unit !== conv.unit)
+      throw new AppError({ code: "unprocessable", message: `The conversion's numbers do not match calibration ${cal.id} (${cal.name}) as stored; reload the page.` });
+  }
+  if (method) {
+    const evaluation = evaluateCriteria(outcome, method.definition.criteria, method.definition.models);
+    results.method_evaluation = { method: { id: method.id, record_id: method.record_id, version: method.version, name: method.name, content_hash: method.content_hash }, ...evaluation };
+  }
   const contentHash = sha(canonicalJson({ data_sha256: dataSha, options: input.options, results, engine: ENGINE_VERSION }));
   if (previous && previous.content_hash === contentHash) {
     return { id: previous.id, record_id: previous.record_id!, version: previous.version, content_hash: contentHash, unchanged: true };
@@ -77,6 +88,7 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
       primary_model: primary.model,
       k_value: primary.k,
       k_se: primary.se,
+      criteria_failed: results.method_evaluation ? results.method_evaluation.failed : null,
       state: "draft",
       options: canonicalJson(input.options),
       results: JSON.stringify(results),
@@ -96,7 +108,14 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
       objectId: recordId,
       objectVersion: version,
       oldValues: previous ? { version: previous.version, content_hash: previous.content_hash, options: JSON.parse(previous.options) } : undefined,
-      newValues: { version, content_hash: contentHash, options: input.options, k: primary.k, k_se: primary.se },
+      newValues: {
+        version,
+        content_hash: contentHash,
+        options: input.options,
+        k: primary.k,
+        k_se: primary.se,
+        ...(results.method_evaluation ? { method: results.method_evaluation.method, criteria_failed: results.method_evaluation.failed } : {}),
+      },
       reason: input.reason ?? null,
     });
     return { id, record_id: recordId, version, content_hash: contentHash, unchanged: false };
@@ -165,7 +184,7 @@ export function describeChanges(a: FitOptions, b: FitOptions): string[] {
   }
   if (canonicalJson(a.window ?? {}) !== canonicalJson(b.window ?? {})) out.push(`fitting window ${b.window?.from ?? "start"}–${b.window?.to ?? "end"} s`);
   if (canonicalJson(a.models) !== canonicalJson(b.models)) out.push(`models: ${b.models.join(", ")}`);
-  if (canonicalJson(a.conversion ?? null) !== canonicalJson(b.conversion ?? null)) out.push(b.conversion ? `converted by Beer–Lambert (ε ${b.conversion.epsilon})` : "no conversion");
+  if (canonicalJson(a.conversion ?? null) !== canonicalJson(b.conversion ?? null)) out.push(!b.conversion ? "no conversion" : b.conversion.kind === "beer-lambert" ? `converted by Beer–Lambert (ε ${b.conversion.epsilon})` : `converted by calibration ${b.conversion.calibrationId}`);
   if (canonicalJson(a.starts ?? {}) !== canonicalJson(b.starts ?? {})) out.push("start values changed");
   if ((a.interval ?? null) !== (b.interval ?? null)) out.push(`interval ${b.interval ?? "none"} s`);
   return out.length ? out : ["no change to the options"];

@@ -45,5 +45,8 @@ export function toErrorBody(e: unknown): { status: number; body: ErrorBody } {
 
 export function toErrorResponse(e: unknown): Response {
   const { status, body } = toErrorBody(e);
-  return Response.json(body, { status });
+  const headers: Record<string, string> = {};
+  if (e instanceof AppError && e.retryAfter) headers["retry-after"] = String(e.retryAfter);
+  if (status === 401) headers["www-authenticate"] = 'Bearer realm="halflight"';
+  return Response.json(body, { status, headers });
 }

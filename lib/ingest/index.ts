@@ -3,6 +3,8 @@
 import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { findRawFileBySha, findRunsOfRawFile, insertRawFile, insertRun, insertSeries, listSeriesOfRun, packF64 } from "@/db/queries/runs";
+import { getLabSettingsRow } from "@/db/queries/admin";
+import { newestMethodVersion } from "@/db/queries/methods";
 import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
@@ -19,9 +21,9 @@ function refuse(fileName: string, e: ParseError): AppError {
   return new AppError({ code: "unprocessable", message: `${fileName}: ${e.message}`, line: e.line });
 }
 
-export function checkSize(fileName: string, size: number): void {
-  if (size > INGEST_LIMITS.maxBytes)
-    throw new AppError({ code: "payload_too_large", message: `${fileName} is ${(size / 1048576).toFixed(1)} MB; the limit is ${INGEST_LIMITS.maxBytes / 1048576} MB per file.` });
+export function checkSize(fileName: string, size: number, maxBytes: number = INGEST_LIMITS.maxBytes): void {
+  if (size > maxBytes)
+    throw new AppError({ code: "payload_too_large", message: `${fileName} is ${(size / 1048576).toFixed(1)} MB; the limit is ${maxBytes / 1048576} MB per file.` });
   if (size === 0) throw new AppError({ code: "unprocessable", message: `${fileName}: The file is empty.` });
 }
 
@@ -38,6 +40,12 @@ export function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<Ru
   return parsed;
 }
 
+/** The lab's upload limit (lab settings), never above the server's own. */
+export async function uploadLimitBytes(db: Knex | Knex.Transaction, labId: number): Promise<number> {
+  const mb = (await getLabSettingsRow(db, labId))?.upload_limit_mb;
+  return Math.min(INGEST_LIMITS.maxBytes, (mb ?? INGEST_LIMITS.maxBytes / 1048576) * 1048576);
+}
+
 const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
 
 export async function findExistingRun(db: Knex | Knex.Transaction, labId: number, sha256: string) {
@@ -49,6 +57,7 @@ export async function findExistingRun(db: Knex | Knex.Transaction, labId: number
 
 /** What the upload page shows before anything is stored. */
 export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<UploadPreview> {
+  checkSize(fileName, bytes.length, await uploadLimitBytes(db, labId));
   const parsed = readExport(bytes, fileName, mapping);
   const sha256 = sha256Hex(bytes);
   const existing = await findExistingRun(db, labId, sha256);
@@ -157,6 +166,7 @@ export async function ingestExport(
   input: { labId: number; userId: number | null; actorLabel?: string; bytes: Uint8Array; fileName: string; mapping?: RunMapping; now?: Date },
 ): Promise<IngestResult> {
   const mapping: RunMapping = input.mapping ?? { run: {} };
+  checkSize(input.fileName, input.bytes.length, await uploadLimitBytes(db, input.labId));
   const sha256 = sha256Hex(input.bytes);
   const existing = await findExistingRun(db, input.labId, sha256);
   if (existing) {
@@ -169,6 +179,8 @@ export async function ingestExport(
   const r = mapping.run ?? {};
   const pick = <T>(v: T | null | undefined, fallback: T | null): T | null => (v === undefined ? fallback : v);
   return db.transaction(async (trx) => {
+    const method = r.method_id ? await newestMethodVersion(trx, input.labId, r.method_id) : null;
+    if (r.method_id && !method) throw new AppError({ code: "unprocessable", message: `There is no method ${r.method_id} in this lab.` });
     const rawFileId = await insertRawFile(trx, {
       lab_id: input.labId,
       sha256,
@@ -190,7 +202,8 @@ export async function ingestExport(
       cell: pick(r.cell, null),
       operator: pick(r.operator, typeof parsed.metadata.operator === "string" ? parsed.metadata.operator : null),
       sample: pick(r.sample, null),
-      method: pick(r.method, null),
+      method: method ? method.name : pick(r.method, null),
+      method_record_id: method ? method.record_id : null,
       dilution_factor: pick(mapping.dilutionFactor, null),
       metadata: JSON.stringify(parsed.metadata),
       warnings: JSON.stringify(parsed.warnings),

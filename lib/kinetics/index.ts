@@ -1,6 +1,7 @@
 // The kinetics engine: pure, synchronous numerics. The UI, the CLI, reports and tests all call it; nothing else
 // re-implements its formulas.
 export * from "./constants";
+export * from "./criteria";
 export * from "./diagnostics";
 export * from "./fit";
 export * from "./formula";

@@ -7,6 +7,8 @@ export interface ParameterEstimate {
   se: number | null;
   ci95: [number, number] | null;
   fixed: boolean;
+  /** SE with a calibration slope's uncertainty added (rate constants fitted on calibrated concentrations). */
+  se_with_calibration?: number;
 }
 
 export type Weighting =

@@ -21,8 +21,24 @@ export interface SeriesFitOptions {
   interval?: number | null;
   /** Linearized fit weighted by (y − A∞)². */
   logWeights?: boolean;
-  conversion?: { kind: "beer-lambert"; epsilon: number; pathLengthCm: number; blank?: number | null } | null;
+  conversion?: Conversion | null;
 }
+
+/**
+ * Absorbance to concentration: Beer–Lambert with ε and b, or a calibration line A = b0 + b1·c (its slope's SE is
+ * carried into rate constants whose units contain concentration).
+ */
+export type Conversion =
+  | { kind: "beer-lambert"; epsilon: number; pathLengthCm: number; blank?: number | null }
+  | { kind: "calibration"; calibrationId: number; slope: number; seSlope: number; intercept: number; unit: string; blank?: number | null };
+
+export function convertReading(a: number, c: Conversion): number {
+  if (c.kind === "beer-lambert") return beerLambertConcentration(a, { epsilon: c.epsilon, pathLengthCm: c.pathLengthCm, blank: c.blank ?? 0 });
+  return (a - (c.blank ?? 0) - c.intercept) / c.slope;
+}
+
+/** Models whose k has concentration in its units, so the calibration slope's uncertainty enters k. */
+const CONCENTRATION_SCALED_K = new Set(["zero-order", "second-order"]);
 
 export interface ModelOutcome {
   model: string;
@@ -37,6 +53,8 @@ export interface SeriesFitOutcome {
   included: boolean[];
   quantity: "absorbance" | "concentration";
   models: ModelOutcome[];
+  /** Smallest and largest fitted reading as measured (before any conversion); null when nothing was fitted. */
+  reading_range: [number, number] | null;
   /** The model the statistics favour among the comparable ones, and why, in plain words. */
   favoured: { model: string; why: string } | null;
   notes: string[];
@@ -55,15 +73,26 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
   const included = Array.from({ length: n }, (_, i) => !excluded.has(i) && tAll[i]! >= from && tAll[i]! <= to);
   const t: number[] = [],
     y: number[] = [];
+  let lo = Infinity,
+    hi = -Infinity;
   for (let i = 0; i < n; i++)
     if (included[i]) {
+      const v = yAll[i]!;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
       t.push(tAll[i]!);
-      y.push(o.conversion ? beerLambertConcentration(yAll[i]!, { epsilon: o.conversion.epsilon, pathLengthCm: o.conversion.pathLengthCm, blank: o.conversion.blank ?? 0 }) : yAll[i]!);
+      y.push(o.conversion ? convertReading(v, o.conversion) : v);
     }
+  const readingRange: [number, number] | null = t.length ? [lo, hi] : null;
   const notes: string[] = [];
   if (excluded.size) notes.push(`${excluded.size} point(s) excluded by the analyst, each with a reason.`);
   if (o.window && (o.window.from != null || o.window.to != null)) notes.push(`Fitting window ${o.window.from ?? "start"} s to ${o.window.to ?? "end"} s.`);
-  if (o.conversion) notes.push(`Absorbance converted to concentration by Beer–Lambert: ε = ${o.conversion.epsilon} L mol⁻¹ cm⁻¹, b = ${o.conversion.pathLengthCm} cm${o.conversion.blank ? `, blank ${o.conversion.blank}` : ""}.`);
+  if (o.conversion?.kind === "beer-lambert")
+    notes.push(`Absorbance converted to concentration by Beer–Lambert: ε = ${o.conversion.epsilon} L mol⁻¹ cm⁻¹, b = ${o.conversion.pathLengthCm} cm${o.conversion.blank ? `, blank ${o.conversion.blank}` : ""}.`);
+  if (o.conversion?.kind === "calibration")
+    notes.push(
+      `Absorbance converted to concentration (${o.conversion.unit}) by calibration ${o.conversion.calibrationId}: c = (A − ${o.conversion.intercept.toPrecision(5)}) / ${o.conversion.slope.toPrecision(5)}. A first-order k does not change under this linear conversion, so the calibration's uncertainty does not enter it; for zero- and second-order k the slope's relative SE is added in quadrature.`,
+    );
 
   const tt = Float64Array.from(t),
     yy = Float64Array.from(y);
@@ -88,6 +117,12 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
       r = failedFit(model, [], tt.length, `No fit: ${e.message}`);
     }
     const { residuals, fitted, ...rest } = r;
+    if (o.conversion?.kind === "calibration" && CONCENTRATION_SCALED_K.has(model)) {
+      const cal = o.conversion;
+      rest.parameters = rest.parameters.map((p) =>
+        p.name === "k" && p.value !== null && p.se !== null ? { ...p, se_with_calibration: Math.abs(p.value) * Math.hypot(p.se / p.value, cal.seSlope / cal.slope) } : p,
+      );
+    }
     const linearLike = model === "linearized" || model === "guggenheim" || model === "kezdy-swinbourne";
     curves[model] = { t: linearLike ? Float64Array.from([]) : tt, fitted, residuals };
     const k = r.parameters.find((p) => p.name === "k");
@@ -122,5 +157,5 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
     if (kl && kn && Math.abs(kl / kn - 1) > 0.05)
       notes.push(`The linearized and nonlinear first-order k differ by ${(100 * Math.abs(kl / kn - 1)).toFixed(0)} %: the log transform weights the noisy tail heavily, and a wrong or drifting A∞ bends the line. Prefer the nonlinear fit, and check A∞.`);
   }
-  return { n: t.length, included, quantity: o.conversion ? "concentration" : "absorbance", models, favoured, notes, curves };
+  return { n: t.length, included, quantity: o.conversion ? "concentration" : "absorbance", reading_range: readingRange, models, favoured, notes, curves };
 }

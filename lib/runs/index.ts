@@ -24,6 +24,7 @@ function summary(r: RunRowLike, seriesCount: number, size?: number): RunSummary 
     operator: r.operator,
     sample: r.sample,
     method: r.method,
+    method_record_id: r.method_record_id,
     dilution_factor: r.dilution_factor,
     series_count: seriesCount,
     raw_file: { id: r.raw_file_id, name: r.raw_file_name, sha256: r.raw_file_sha256, ...(size !== undefined ? { size } : {}) },

@@ -13,7 +13,19 @@ export const fitOptionsSchema = z.object({
   interval: z.number().positive().finite().nullable().optional(),
   logWeights: z.boolean().optional(),
   conversion: z
-    .object({ kind: z.literal("beer-lambert"), epsilon: z.number().positive().finite(), pathLengthCm: z.number().positive().finite(), blank: z.number().finite().nullable().optional() })
+    .discriminatedUnion("kind", [
+      z.object({ kind: z.literal("beer-lambert"), epsilon: z.number().positive().finite(), pathLengthCm: z.number().positive().finite(), blank: z.number().finite().nullable().optional() }),
+      // The numbers travel with the id so the browser can fit at once; the server checks them against the stored calibration.
+      z.object({
+        kind: z.literal("calibration"),
+        calibrationId: z.number().int().positive(),
+        slope: z.number().finite().refine((v) => v !== 0, "A calibration slope of zero cannot convert readings."),
+        seSlope: z.number().finite().min(0),
+        intercept: z.number().finite(),
+        unit: z.string().trim().min(1).max(32),
+        blank: z.number().finite().nullable().optional(),
+      }),
+    ])
     .nullable()
     .optional(),
 });

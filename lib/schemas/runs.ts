@@ -33,6 +33,8 @@ export const runMappingSchema = z.object({
       operator: optionalText,
       sample: optionalText,
       method: optionalText,
+      /** A method record of the lab: its newest version evaluates the run's fits. */
+      method_id: z.number().int().positive().nullable().optional(),
     })
     .default({}),
 });
@@ -62,7 +64,7 @@ export const seriesPointsQuerySchema = z.object({
 /** The run columns the API shows, as stored (the row type is the one source of their names and types). */
 export type RunFields = Pick<
   DbRunRow,
-  "id" | "name" | "study" | "parser" | "wavelength_nm" | "path_length_cm" | "temperature_c" | "cell" | "operator" | "sample" | "method" | "dilution_factor" | "created_at"
+  "id" | "name" | "study" | "parser" | "wavelength_nm" | "path_length_cm" | "temperature_c" | "cell" | "operator" | "sample" | "method" | "method_record_id" | "dilution_factor" | "created_at"
 >;
 
 export interface RunSummary extends RunFields {

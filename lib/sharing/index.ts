@@ -4,6 +4,7 @@ import { createHash, randomBytes } from "node:crypto";
 import type { Knex } from "knex";
 import { getFit } from "@/db/queries/fits";
 import { findShareLink, findShareLinkByTokenHash, insertShareLink, insertShareView, revokeShareLink, shareLinksOf } from "@/db/queries/sharing";
+import { getLabSettings } from "@/lib/admin/settings";
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
@@ -22,7 +23,8 @@ export async function createShareLink(
   if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
   const token = randomBytes(24).toString("base64url");
   const now = new Date();
-  const expires = new Date(now.getTime() + (opts.days ?? DEFAULT_SHARE_DAYS) * 86_400_000).toISOString();
+  const days = opts.days ?? (await getLabSettings(db, user.labId)).default_link_days ?? DEFAULT_SHARE_DAYS;
+  const expires = new Date(now.getTime() + days * 86_400_000).toISOString();
   const id = await db.transaction(async (trx) => {
     const linkId = await insertShareLink(trx, { lab_id: user.labId, token_sha256: tokenHash(token), object_type: "fit", object_id: fitId, recipient: opts.recipient ?? null, expires_at: expires, revoked_at: null, revoked_by: null, created_by: user.userId, created_at: now.toISOString() });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.created", objectType: "fit", objectId: f.record_id, objectVersion: f.version, newValues: { share_link_id: linkId, recipient: opts.recipient ?? null, expires_at: expires } });

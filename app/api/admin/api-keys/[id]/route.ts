@@ -1,0 +1,5 @@
+import { revokeApiKey } from "@/lib/admin/api-keys";
+import { withUser } from "@/lib/http/with-user";
+import { idParam } from "@/lib/schemas/common";
+
+export const DELETE = withUser<{ id: string }>({ permission: "user:manage" }, async ({ params, db, user }) => revokeApiKey(db, user, idParam.parse(params.id)));
