@@ -31,7 +31,11 @@ const cvForm = () => {
 };
 
 // Public by design: next-auth's own endpoints (sign-in, CSRF, session) must be reachable signed out.
-const PUBLIC = new Set(["app/api/auth/[...nextauth]/route.ts"]);
+// The invitation link and the instrument upload carry their own credential (a one-time token, an API key): both are
+// tested in admin.test.ts.
+const PUBLIC = new Set(["app/api/auth/[...nextauth]/route.ts", "app/api/invitations/[token]/route.ts", "app/api/ingest/route.ts"]);
+const METHOD_JSON = { definition: { name: "Matrix method", analyte: "corvane blue", wavelength_nm: 590, criteria: [{ kind: "r2_min", value: 0.99 }] } };
+const CAL_JSON = { name: "Matrix calibration", analyte: "corvane blue", standards: [0, 1, 2, 3, 4].map((c) => ({ concentration: c, absorbance: 0.1 * c + 0.001 * (c % 2) })) };
 
 const ROUTES: Record<string, RouteCase> = {
   "app/api/me/route.ts": { methods: { GET: { permission: "self:read", url: "/api/me" } } },
@@ -40,6 +44,31 @@ const ROUTES: Record<string, RouteCase> = {
   "app/api/admin/members/[userId]/route.ts": {
     methods: { POST: { permission: "user:manage", url: "/api/admin/members/3", params: { userId: "3" }, json: { action: "unlock", reason: "matrix test" } } },
   },
+  "app/api/admin/invitations/route.ts": {
+    methods: { GET: { permission: "user:manage", url: "/api/admin/invitations" }, POST: { permission: "user:manage", url: "/api/admin/invitations", json: { email: "matrix.invitee@larkspur.example", name: "Matrix Invitee", role: "analyst" }, ok: [201] } },
+  },
+  "app/api/admin/invitations/[id]/route.ts": { methods: { DELETE: { permission: "user:manage", url: "/api/admin/invitations/1", params: { id: "1" } } } },
+  "app/api/admin/settings/route.ts": {
+    methods: { GET: { permission: "user:manage", url: "/api/admin/settings" }, PUT: { permission: "user:manage", url: "/api/admin/settings", json: { outside_links: false, default_link_days: 14, upload_limit_mb: 50, password_min_length: 12, reason: "matrix test" } } },
+  },
+  "app/api/admin/api-keys/route.ts": {
+    methods: { GET: { permission: "user:manage", url: "/api/admin/api-keys" }, POST: { permission: "user:manage", url: "/api/admin/api-keys", json: { name: "Matrix bench" }, ok: [201] } },
+  },
+  "app/api/admin/api-keys/[id]/route.ts": { methods: { DELETE: { permission: "user:manage", url: "/api/admin/api-keys/1", params: { id: "1" } } } },
+  "app/api/methods/route.ts": {
+    methods: { GET: { permission: "method:read", url: "/api/methods?sort=name&dir=asc" }, POST: { permission: "method:write", url: "/api/methods", json: METHOD_JSON, ok: [201] } },
+  },
+  "app/api/methods/[id]/route.ts": {
+    methods: {
+      GET: { permission: "method:read", url: "/api/methods/1", params: { id: "1" } },
+      POST: { permission: "method:write", url: "/api/methods/1", params: { id: "1" }, json: { definition: { ...METHOD_JSON.definition, name: "Matrix method, changed" }, reason: "matrix test" }, ok: [201, 409] },
+    },
+  },
+  "app/api/calibrations/route.ts": {
+    methods: { GET: { permission: "method:read", url: "/api/calibrations" }, POST: { permission: "calibration:write", url: "/api/calibrations", json: CAL_JSON, ok: [201] } },
+  },
+  "app/api/calibrations/[id]/route.ts": { methods: { GET: { permission: "method:read", url: "/api/calibrations/1", params: { id: "1" } } } },
+  "app/api/runs/[id]/method/route.ts": { methods: { POST: { permission: "run:upload", url: "/api/runs/1/method", params: { id: "1" }, json: { methodId: 1, reason: "matrix test" } } } },
   "app/api/audit/route.ts": { methods: { GET: { permission: "audit:read", url: "/api/audit?limit=5" } } },
   "app/api/uploads/route.ts": { methods: { POST: { permission: "run:upload", url: "/api/uploads", form: cvForm } } },
   "app/api/runs/route.ts": {
