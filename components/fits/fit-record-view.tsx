@@ -10,7 +10,7 @@ import { getDb } from "@/db";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { listAuditTrail } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
-import { fitVersions, getFitRecord } from "@/lib/fits";
+import { fitVersions, getFitRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { can } from "@/lib/permissions";
 
@@ -71,6 +71,7 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
         ))}
         <p className="mt-3 text-xs text-ink-500">An estimate for qualified review: shelf-life and release decisions follow your lab&apos;s SOPs and local regulations.</p>
       </section>
+      {rec.results.method_evaluation && <MethodVerdict ev={rec.results.method_evaluation} />}
       <div className="mb-6 space-y-6">
         <ReviewPanel fitId={rec.id} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
         {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
@@ -142,5 +143,41 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
         </ol>
       </section>
     </>
+  );
+}
+
+function MethodVerdict({ ev }: { ev: NonNullable<FitRecordData["results"]["method_evaluation"]> }) {
+  return (
+    <section className="mb-6 rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Method criteria" data-testid="record-criteria">
+      <h2 className="text-lg font-semibold">
+        Method criteria{" "}
+        {ev.results.length === 0 ? <Badge tone="neutral">none set</Badge> : ev.passed ? <Badge tone="pass">all met</Badge> : <Badge tone="fault">{ev.failed} not met</Badge>}
+      </h2>
+      <p className="mt-1 text-sm text-ink-500">
+        Judged at save by <Link className="text-quartz-700 underline" href={`/methods/${ev.method.id}`}>{ev.method.name} v{ev.method.version}</Link> on the {ev.model} fit.
+      </p>
+      {ev.results.length > 0 && (
+        <div className="mt-3">
+          <Table caption="Acceptance criteria of the method">
+            <thead>
+              <tr>
+                <Th>Criterion</Th>
+                <Th numeric>This fit</Th>
+                <Th>Verdict</Th>
+              </tr>
+            </thead>
+            <tbody>
+              {ev.results.map((r) => (
+                <tr key={r.kind} data-criterion={r.kind}>
+                  <Td>{r.label}{r.note && <span className="block text-xs text-ink-500">{r.note}</span>}</Td>
+                  <Td numeric>{r.observed ?? "—"}</Td>
+                  <Td>{r.pass ? <Badge tone="pass">pass</Badge> : <Badge tone="fault">fail</Badge>}</Td>
+                </tr>
+              ))}
+            </tbody>
+          </Table>
+        </div>
+      )}
+    </section>
   );
 }

@@ -16,8 +16,10 @@ import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
 import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { fetcher } from "@/lib/http/fetcher";
 import { firstOrderRate, localTangentRate } from "@/lib/kinetics/quantities";
-import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
+import { evaluateCriteria, type Criterion } from "@/lib/kinetics/criteria";
+import { convertReading, fitSeriesWithOptions, type Conversion, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import type { FitOptions } from "@/lib/schemas/fits";
+import type { MethodForRun } from "@/lib/schemas/methods";
 import { useSeriesFit } from "./use-fit";
 
 const ALL_MODELS = [
@@ -40,7 +42,10 @@ interface Props {
   from: { id: number; version: number; title: string; options: FitOptions } | null;
   canSave: boolean;
   engineVersion: string;
+  /** The run's method (its newest version): starting options, and the criteria each fit is judged against. */
+  method: MethodForRun | null;
 }
+
 
 interface Points {
   t: number[];
@@ -80,27 +85,32 @@ export function FitWorkspace(props: Props) {
   );
 }
 
-function Workspace({ run, series, initialModels, from, canSave, engineVersion, points }: Props & { points: Points }) {
+function Workspace({ run, series, initialModels, from, canSave, engineVersion, points, method }: Props & { points: Points }) {
   const router = useRouter();
   const pathname = usePathname();
   const toast = useToast();
   const o = from?.options;
-  const [models, setModels] = useState<string[]>(initialModels ?? o?.models ?? DEFAULT_MODELS);
-  const [windowFrom, setWindowFrom] = useState<string>(o?.window?.from != null ? String(o.window.from) : "");
-  const [windowTo, setWindowTo] = useState<string>(o?.window?.to != null ? String(o.window.to) : "");
+  // A new fit starts from the run's method; changing a saved version starts from that version's options.
+  const m = o ? null : method;
+  const startConv: Conversion | null = o ? (o.conversion ?? null) : (method?.conversion ?? null);
+  const [models, setModels] = useState<string[]>(initialModels ?? o?.models ?? m?.models ?? DEFAULT_MODELS);
+  const [windowFrom, setWindowFrom] = useState<string>(o?.window?.from != null ? String(o.window.from) : m?.window.from_s != null ? String(m.window.from_s) : "");
+  const [windowTo, setWindowTo] = useState<string>(o?.window?.to != null ? String(o.window.to) : m?.window.to_s != null ? String(m.window.to_s) : "");
   const [exclusions, setExclusions] = useState<Array<{ index: number; reason: string }>>(o?.exclusions ?? []);
   const [fixAinf, setFixAinf] = useState<string>(o?.fixed?.ainf != null ? String(o.fixed.ainf) : "");
-  const [logWeights, setLogWeights] = useState(Boolean(o?.logWeights));
+  const [logWeights, setLogWeights] = useState(o ? Boolean(o.logWeights) : m?.weighting === "log");
   const [interval, setInterval] = useState<string>(o?.interval != null ? String(o.interval) : "");
-  const [epsilon, setEpsilon] = useState<string>(o?.conversion ? String(o.conversion.epsilon) : "");
-  const [pathLength, setPathLength] = useState<string>(o?.conversion ? String(o.conversion.pathLengthCm) : String(run.path_length_cm ?? 1));
+  const [epsilon, setEpsilon] = useState<string>(startConv?.kind === "beer-lambert" ? String(startConv.epsilon) : "");
+  const [pathLength, setPathLength] = useState<string>(startConv?.kind === "beer-lambert" ? String(startConv.pathLengthCm) : String(run.path_length_cm ?? m?.pathLengthCm ?? 1));
+  const calibrationConv = startConv?.kind === "calibration" ? startConv : method?.conversion?.kind === "calibration" ? method.conversion : null;
+  const [useCalibration, setUseCalibration] = useState(startConv?.kind === "calibration");
   const [perMinute, setPerMinute] = useState(true);
   const [reason, setReason] = useState("");
   const [title, setTitle] = useState(from?.title ?? `${run.name} · ${series.name}`);
   const [saveReason, setSaveReason] = useState("");
   const [saving, setSaving] = useState(false);
-  const [formula, setFormula] = useState<string>(o?.formula ?? "");
-  const [startsText, setStartsText] = useState<string>(Object.entries(o?.starts ?? {}).map(([k, v]) => `${k}=${v}`).join(", "));
+  const [formula, setFormula] = useState<string>(o?.formula ?? m?.formula ?? "");
+  const [startsText, setStartsText] = useState<string>(Object.entries(o?.starts ?? m?.starts ?? {}).map(([k, v]) => `${k}=${v}`).join(", "));
   const [selected, setSelected] = useState<number[]>([]);
   /** The points waiting for a reason before they are excluded (one clicked, or a box selection). */
   const [pending, setPending] = useState<number[] | null>(null);
@@ -125,17 +135,22 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
       ...(num(fixAinf) !== null && Number.isFinite(num(fixAinf)) ? { fixed: { ainf: num(fixAinf)! } } : {}),
       ...(logWeights ? { logWeights: true } : {}),
       ...(num(interval) ? { interval: num(interval) } : {}),
-      ...(num(epsilon) ? { conversion: { kind: "beer-lambert" as const, epsilon: num(epsilon)!, pathLengthCm: num(pathLength) ?? 1 } } : {}),
+      ...(useCalibration && calibrationConv
+        ? { conversion: calibrationConv }
+        : num(epsilon)
+          ? { conversion: { kind: "beer-lambert" as const, epsilon: num(epsilon)!, pathLengthCm: num(pathLength) ?? 1, ...(startConv?.kind === "beer-lambert" && startConv.blank != null ? { blank: startConv.blank } : {}) } }
+          : {}),
     }),
-    [models, formula, starts, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength],
+    [models, formula, starts, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength, useCalibration, calibrationConv, startConv],
   );
   const { outcome, ms, where, busy: stale } = useSeriesFit(points.t, points.y, options as SeriesFitOptions);
 
   const tScale = perMinute ? 60 : 1;
   const tLabel = perMinute ? "t (min)" : "t (s)";
   const kUnit = perMinute ? `min${superscript(-1)}` : `s${superscript(-1)}`;
-  const yLabel = outcome.quantity === "concentration" ? "c (mol L⁻¹)" : "A (AU)";
-  const conv = (v: number) => (options.conversion ? (v - 0) / (options.conversion.epsilon * options.conversion.pathLengthCm) : v);
+  const yLabel = outcome.quantity !== "concentration" ? "A (AU)" : options.conversion?.kind === "calibration" ? `c (${options.conversion.unit})` : "c (mol L⁻¹)";
+  const conv = (v: number) => (options.conversion ? convertReading(v, options.conversion) : v);
+  const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
   const colour = solutionColour(run.wavelength_nm).hex;
 
   function setModelList(next: string[]) {
@@ -328,6 +343,36 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
       </div>
 
       <aside className="space-y-5" aria-label="Fit controls">
+        {method && verdict && (
+          <section className="rounded-cell bg-paper-raised p-4 shadow-lift" aria-label="Method criteria" data-testid="criteria-panel">
+            <h2 className="text-sm font-semibold">
+              Method: {method.name} <span className="font-normal text-ink-500">v{method.version}</span>
+            </h2>
+            {method.criteria.length === 0 ? (
+              <p className="mt-1 text-sm text-ink-500">The method sets no acceptance criteria.</p>
+            ) : (
+              <>
+                <p className="mt-1 text-sm">
+                  {verdict.passed ? <Badge tone="pass">all {verdict.results.length} criteria met</Badge> : <Badge tone="fault">{verdict.failed} of {verdict.results.length} not met</Badge>}{" "}
+                  <span className="text-ink-500">judging {verdict.model}</span>
+                </p>
+                <ul className="mt-2 space-y-1 text-sm">
+                  {verdict.results.map((r) => (
+                    <li key={r.kind} className="flex items-start justify-between gap-2" data-criterion={r.kind} data-pass={r.pass}>
+                      <span>
+                        {r.label}
+                        {r.note && <span className="block text-xs text-ink-500">{r.note}</span>}
+                      </span>
+                      <span className="num whitespace-nowrap font-mono text-xs">
+                        {r.observed ?? "—"} {r.pass ? <Badge tone="pass">pass</Badge> : <Badge tone="fault">fail</Badge>}
+                      </span>
+                    </li>
+                  ))}
+                </ul>
+              </>
+            )}
+          </section>
+        )}
         <fieldset className="rounded-cell bg-paper-raised p-4 shadow-lift">
           <legend className="px-1 text-sm font-semibold">Models</legend>
           {ALL_MODELS.map((m) => (
@@ -367,9 +412,21 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           </label>
         </fieldset>
         <fieldset className="space-y-3 rounded-cell bg-paper-raised p-4 shadow-lift">
-          <legend className="px-1 text-sm font-semibold">Concentration (Beer–Lambert)</legend>
-          <Input label="ε (L mol⁻¹ cm⁻¹)" inputMode="decimal" value={epsilon} onChange={(e) => setEpsilon(e.target.value)} hint="Empty: fit absorbance." />
-          <Input label="Path length b (cm)" inputMode="decimal" value={pathLength} onChange={(e) => setPathLength(e.target.value)} />
+          <legend className="px-1 text-sm font-semibold">Concentration</legend>
+          {calibrationConv && (
+            <label className="flex items-start gap-2 text-sm">
+              <input type="checkbox" checked={useCalibration} onChange={(e) => setUseCalibration(e.target.checked)} />
+              <span>
+                Convert by calibration {calibrationConv.calibrationId}: c = (A − {formatNumber(calibrationConv.intercept, 4)}) / {formatNumber(calibrationConv.slope, 5)} ({calibrationConv.unit})
+              </span>
+            </label>
+          )}
+          {!(useCalibration && calibrationConv) && (
+            <>
+              <Input label="ε (L mol⁻¹ cm⁻¹)" inputMode="decimal" value={epsilon} onChange={(e) => setEpsilon(e.target.value)} hint="Beer–Lambert. Empty: fit absorbance." />
+              <Input label="Path length b (cm)" inputMode="decimal" value={pathLength} onChange={(e) => setPathLength(e.target.value)} />
+            </>
+          )}
         </fieldset>
         <fieldset className="space-y-2 rounded-cell bg-paper-raised p-4 shadow-lift">
           <legend className="px-1 text-sm font-semibold">Rate at a time</legend>
@@ -539,6 +596,7 @@ function ComparisonTable({ outcome, perMinute, kUnit, stale }: { outcome: Outcom
                   return (
                     <td key={m.model} className="num pr-4 font-mono text-xs" data-param={name}>
                       {!p ? "" : p.value === null ? "—" : formatWithUncertainty(p.value * scaleOf(name), p.se === null ? null : p.se * scaleOf(name))}
+                      {p?.se_with_calibration !== undefined && <span className="block text-ink-500">SE with calibration ±{formatNumber(p.se_with_calibration * scaleOf(name), 3)}</span>}
                       {p?.fixed ? " (fixed)" : p?.ci95 ? <span className="block text-ink-500">95 % CI {formatNumber(p.ci95[0] * scaleOf(name), 4)} … {formatNumber(p.ci95[1] * scaleOf(name), 4)}</span> : null}
                     </td>
                   );

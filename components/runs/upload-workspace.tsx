@@ -26,6 +26,7 @@ interface Item {
 }
 
 type Limits = { maxMB: number; maxChannels: number; maxPoints: number };
+type MethodChoice = { record_id: number; name: string; version: number; wavelength_nm?: number | null };
 
 function errorOf(body: unknown): string | null {
   const e = (body as { error?: { message?: string } } | null)?.error;
@@ -47,7 +48,7 @@ function initialMapping(p: UploadPreview): RunMapping {
   };
 }
 
-export function UploadWorkspace({ limits }: { limits: Limits }) {
+export function UploadWorkspace({ limits, methods = [] }: { limits: Limits; methods?: MethodChoice[] }) {
   const [items, setItems] = useState<Item[]>([]);
   const update = useCallback((key: string, patch: Partial<Item> | ((i: Item) => Partial<Item>)) => {
     setItems((all) => all.map((i) => (i.key === key ? { ...i, ...(typeof patch === "function" ? patch(i) : patch) } : i)));
@@ -124,7 +125,7 @@ export function UploadWorkspace({ limits }: { limits: Limits }) {
       </div>
       {items.length === 0 && <p className="text-sm text-ink-500">No files yet. Each file you add is listed here with its preview.</p>}
       {items.map((item) => (
-        <FileCard key={item.key} item={item} onMapping={(m) => update(item.key, { mapping: m })} onSave={() => save(item)} onTimeColumn={(c) => preview(item.key, item.file, { timeColumn: c })} />
+        <FileCard key={item.key} item={item} methods={methods} onMapping={(m) => update(item.key, { mapping: m })} onSave={() => save(item)} onTimeColumn={(c) => preview(item.key, item.file, { timeColumn: c })} />
       ))}
     </div>
   );
@@ -141,7 +142,7 @@ function Progress({ value, label }: { value: number; label: string }) {
   );
 }
 
-function FileCard({ item, onMapping, onSave, onTimeColumn }: { item: Item; onMapping: (m: RunMapping) => void; onSave: () => void; onTimeColumn: (c: string) => void }) {
+function FileCard({ item, methods, onMapping, onSave, onTimeColumn }: { item: Item; methods: MethodChoice[]; onMapping: (m: RunMapping) => void; onSave: () => void; onTimeColumn: (c: string) => void }) {
   const p = item.preview;
   const m = item.mapping;
   const setRun = (patch: Partial<RunMapping["run"]>) => onMapping({ ...m, run: { ...m.run, ...patch } });
@@ -283,7 +284,17 @@ function FileCard({ item, onMapping, onSave, onTimeColumn }: { item: Item; onMap
               <Input label="Temperature (°C)" inputMode="decimal" value={m.run.temperature_c ?? ""} onChange={(e) => setRun({ temperature_c: numOrNull(e.target.value) })} />
               <Input label="Dilution factor" inputMode="decimal" value={m.dilutionFactor ?? ""} onChange={(e) => onMapping({ ...m, dilutionFactor: numOrNull(e.target.value) })} />
               <Input label="Operator" value={m.run.operator ?? ""} onChange={(e) => setRun({ operator: e.target.value || null })} />
-              <Input label="Method" value={m.run.method ?? ""} onChange={(e) => setRun({ method: e.target.value || null })} />
+              {methods.length > 0 ? (
+                <Select
+                  label="Method"
+                  value={m.run.method_id ? String(m.run.method_id) : ""}
+                  options={[{ value: "", label: "No method" }, ...methods.map((x) => ({ value: String(x.record_id), label: `${x.name} (v${x.version})` }))]}
+                  onChange={(e) => setRun({ method_id: e.target.value ? Number(e.target.value) : null })}
+                  hint="Its fits are judged by the method's acceptance criteria."
+                />
+              ) : (
+                <Input label="Method (as written)" value={m.run.method ?? ""} onChange={(e) => setRun({ method: e.target.value || null })} hint="No methods are defined in this lab yet." />
+              )}
               <Select
                 label="Blank channel"
                 value={m.blank ?? ""}

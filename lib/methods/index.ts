@@ -22,7 +22,7 @@ import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
 import { canonicalJson } from "@/lib/fits/canonical";
 import { calibrate, compileFormula, ENGINE_VERSION, fitKinetics, FormulaError, type Calibration, type Conversion } from "@/lib/kinetics";
-import type { CreateCalibration, CustomModel, ListQueryInput, MethodDefinition } from "@/lib/schemas/methods";
+import type { CreateCalibration, CustomModel, ListQueryInput, MethodDefinition, MethodForRun } from "@/lib/schemas/methods";
 
 const sha = (s: string) => createHash("sha256").update(s).digest("hex");
 
@@ -318,4 +318,31 @@ export async function assignRunMethod(db: Knex, user: SignedInUser, runId: numbe
     });
     return { ok: true as const, method: method ? { record_id: method.record_id, name: method.name, version: method.version } : null };
   });
+}
+
+/** The run's method as the fitting page starts from it: options, criteria, and the conversion it implies. */
+export async function methodForWorkspace(db: Knex, labId: number, methodRecordId: number | null): Promise<MethodForRun | null> {
+  const m = await methodForRun(db, labId, methodRecordId);
+  if (!m) return null;
+  const d = m.definition;
+  const blank = d.blank.kind === "value" ? d.blank.value : null;
+  const conversion: Conversion | null =
+    d.concentration.kind === "beer-lambert"
+      ? { kind: "beer-lambert", epsilon: d.concentration.epsilon, pathLengthCm: d.path_length_cm, ...(blank !== null ? { blank } : {}) }
+      : d.concentration.kind === "calibration" && m.calibration
+        ? calibrationConversion(m.calibration, blank)
+        : null;
+  return {
+    id: m.id,
+    version: m.version,
+    name: m.name,
+    models: d.models,
+    criteria: d.criteria,
+    window: d.window,
+    weighting: d.weighting,
+    formula: d.custom_models[0]?.formula ?? null,
+    starts: d.custom_models[0]?.starts ?? {},
+    pathLengthCm: d.path_length_cm,
+    conversion,
+  };
 }

@@ -74,10 +74,18 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   doc.x = 48;
   doc.y = box.y + box.h + 18;
 
+  const ev = rec.results.method_evaluation;
+  if (ev) {
+    heading(`Method criteria: ${ev.results.length === 0 ? "none set" : ev.passed ? "all met" : `${ev.failed} of ${ev.results.length} NOT MET`}`);
+    line(`Judged at save by ${ev.method.name} version ${ev.method.version} on the ${ev.model} fit.`, 9);
+    for (const r of ev.results) line(`${r.pass ? "PASS" : "FAIL"}   ${r.label}: ${r.observed ?? "not evaluable"}${r.note ? ` (${r.note})` : ""}`, 9, "mono");
+  }
+
   heading("Parameters and diagnostics");
   for (const m of rec.results.models) {
     line(`${m.model}: n ${m.result.n}, dof ${m.result.dof}, SSR ${formatNumber(m.result.ssr, 4)}, r² ${m.result.r2?.toFixed(5) ?? "—"}, AICc ${m.result.aicc?.toFixed(2) ?? "—"}, runs ${m.result.runs ?? "—"}, Durbin–Watson ${m.result.durbin_watson?.toFixed(2) ?? "—"}`, 9, "bold");
-    for (const p of m.result.parameters) line(`   ${p.name} = ${p.value === null ? "no fit" : formatWithUncertainty(p.value, p.se)}${p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}`, 9, "mono");
+    for (const p of m.result.parameters)
+      line(`   ${p.name} = ${p.value === null ? "no fit" : formatWithUncertainty(p.value, p.se)}${p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}${p.se_with_calibration !== undefined ? `   SE with calibration ${formatNumber(p.se_with_calibration, 3)}` : ""}`, 9, "mono");
     if (!m.result.converged) line(`   ${m.result.message}`, 9);
     for (const w of m.result.warnings) line(`   ${w}`, 8);
   }
@@ -85,6 +93,8 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
 
   heading("What was done");
   line(`Models: ${rec.options.models.join(", ")}`, 9);
+  const c = rec.options.conversion;
+  if (c) line(c.kind === "beer-lambert" ? `Beer–Lambert: ε ${c.epsilon} L mol⁻¹ cm⁻¹, b ${c.pathLengthCm} cm` : `Calibration ${c.calibrationId}: c = (A − ${formatNumber(c.intercept, 5)}) / ${formatNumber(c.slope, 6)} (${c.unit})`, 9);
   if (rec.options.window) line(`Window: ${rec.options.window.from ?? "start"} to ${rec.options.window.to ?? "end"} s`, 9);
   for (const [k, v] of Object.entries(rec.options.fixed ?? {})) line(`${k} fixed at ${v}`, 9);
   for (const e of rec.options.exclusions ?? []) line(`Point ${e.index + 1} (t = ${formatNumber(t[e.index], 5)} s) excluded: ${e.reason}`, 9);

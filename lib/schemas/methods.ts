@@ -1,6 +1,7 @@
 // Methods (how a run must be evaluated), calibrations (standards and their line), and the list query both share.
 import { z } from "zod";
 import type { Criterion } from "@/lib/kinetics/criteria";
+import type { Conversion } from "@/lib/kinetics/workspace";
 import { FIT_MODELS } from "./fits";
 
 const reason = z.string().trim().min(3, "Say why (at least 3 characters).").max(1000);
@@ -90,3 +91,18 @@ export const listQuerySchema = z.object({
 export type ListQueryInput = z.infer<typeof listQuerySchema>;
 
 export const assignMethodSchema = z.object({ methodId: z.number().int().positive().nullable(), reason });
+
+/** What the fitting page needs of a run's method (its newest version). */
+export interface MethodForRun {
+  id: number;
+  version: number;
+  name: string;
+  models: string[];
+  criteria: Criterion[];
+  window: { from_s: number | null; to_s: number | null };
+  weighting: "none" | "log";
+  formula: string | null;
+  starts: Record<string, number>;
+  pathLengthCm: number;
+  conversion: Conversion | null;
+}

@@ -50,6 +50,7 @@ export default async function FitsPage({ searchParams }: { searchParams: Promise
               ))}
               <Th>Run · series</Th>
               <Th>Model</Th>
+              <Th>Method criteria</Th>
               <Th>State</Th>
               <Th>Author</Th>
             </tr>
@@ -63,6 +64,7 @@ export default async function FitsPage({ searchParams }: { searchParams: Promise
                 <Td className="whitespace-nowrap">{String(f.created_at).slice(0, 16).replace("T", " ")} UTC</Td>
                 <Td><Link className="hover:underline" href={`/runs/${f.run_id}`}>{f.run_name}</Link> · {f.series_name}{f.temperature_c != null ? ` · ${f.temperature_c} °C` : ""}</Td>
                 <Td>{f.primary_model}</Td>
+                <Td data-testid="fit-criteria">{f.criteria_failed === null ? <span className="text-ink-500">no method</span> : f.criteria_failed === 0 ? <Badge tone="pass">all met</Badge> : <Badge tone="fault">{f.criteria_failed} not met</Badge>}</Td>
                 <Td><Badge tone={f.review_state === "approved" ? "pass" : f.review_state === "rejected" ? "fault" : f.review_state === "submitted" ? "accent" : "neutral"}>{f.review_state ?? "draft"}</Badge></Td>
                 <Td>{f.author_name ?? "—"}</Td>
               </tr>

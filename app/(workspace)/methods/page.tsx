@@ -1,13 +1,29 @@
 import type { Metadata } from "next";
-import { AreaPlaceholder } from "@/components/shell/area-placeholder";
+import Link from "next/link";
+import { MethodList } from "@/components/methods/lists";
+import { MethodsNav } from "@/components/methods/methods-nav";
+import { PageHeader } from "@/components/shell/page-header";
+import { getDb } from "@/db";
 import { requirePageUser } from "@/lib/auth/page";
-import { AREAS } from "@/lib/navigation";
+import { listMethods } from "@/lib/methods";
+import { can } from "@/lib/permissions";
+import { listQuerySchema } from "@/lib/schemas/methods";
 
 export const metadata: Metadata = { title: "Methods" };
 
-const area = AREAS.find((a) => a.href === "/methods")!;
-
-export default async function Page() {
-  await requirePageUser("method:read", "/methods");
-  return <AreaPlaceholder title={area.label} purpose={area.purpose} missing="method templates and calibration curves." />;
+export default async function MethodsPage({ searchParams }: { searchParams: Promise<Record<string, string>> }) {
+  const user = await requirePageUser("method:read", "/methods");
+  const q = listQuerySchema.parse({ sort: "name", dir: "asc", ...(await searchParams) });
+  const list = await listMethods(await getDb(), user.labId, q);
+  return (
+    <>
+      <PageHeader
+        title="Methods"
+        lede="How each kind of run must be evaluated: wavelength, concentration from ε or a calibration, models, window and the acceptance criteria every fit is judged against."
+        actions={can(user, "method:write") ? <Link href="/methods/new" className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-4 font-semibold text-white hover:bg-quartz-600">New method</Link> : undefined}
+      />
+      <MethodsNav current="methods" />
+      <MethodList rows={list.rows} state={{ total: list.total, page: q.page, pageSize: q.pageSize, sort: q.sort, dir: q.dir, q: q.q }} />
+    </>
+  );
 }

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { RunMethod } from "@/components/runs/run-method";
 import { RunChannelsPlot } from "@/components/runs/run-plot";
 import { PageHeader } from "@/components/shell/page-header";
 import { Badge } from "@/components/ui/badge";
@@ -10,6 +11,8 @@ import { requirePageUser } from "@/lib/auth/page";
 import { solutionColour } from "@/lib/colour/wavelength";
 import { AppError } from "@/lib/errors";
 import { formatBytes, formatSeconds } from "@/lib/format/number";
+import { methodChoices } from "@/lib/methods";
+import { can } from "@/lib/permissions";
 import { getRunDetail } from "@/lib/runs";
 
 export const metadata: Metadata = { title: "Run" };
@@ -19,7 +22,8 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
   const user = await requirePageUser("run:read", `/runs/${id}`);
   const runId = Number(id);
   if (!Number.isInteger(runId) || runId <= 0) notFound();
-  const run = await getRunDetail(await getDb(), user.labId, runId).catch((e: unknown) => {
+  const db = await getDb();
+  const run = await getRunDetail(db, user.labId, runId).catch((e: unknown) => {
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
   });
@@ -32,7 +36,6 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
     ["Sample", run.sample],
     ["Cell", run.cell],
     ["Operator", run.operator],
-    ["Method", run.method],
     ["Dilution factor", run.dilution_factor],
   ];
   return (
@@ -105,6 +108,11 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
                 <dd>{v ?? <span className="text-ink-300">not given</span>}</dd>
               </div>
             ))}
+            <dt className="text-ink-500">Method</dt>
+            <dd>
+              <RunMethod runId={run.id} current={run.method_record_id ? { record_id: run.method_record_id, name: run.method ?? "method" } : null} choices={can(user, "run:upload") ? await methodChoices(db, user.labId) : []} canAssign={can(user, "run:upload")} />
+              {!run.method_record_id && run.method && <span className="block text-xs text-ink-500">The file names “{run.method}”, which is not one of the lab&apos;s methods.</span>}
+            </dd>
             <dt className="text-ink-500">Original file</dt>
             <dd>
               {run.raw_file.name} · {formatBytes(run.raw_file.size ?? 0)}

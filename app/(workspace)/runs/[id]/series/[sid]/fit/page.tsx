@@ -7,6 +7,7 @@ import { AppError } from "@/lib/errors";
 import { getFitRecord } from "@/lib/fits";
 import { ENGINE_VERSION } from "@/lib/kinetics/constants";
 import { can } from "@/lib/permissions";
+import { methodForWorkspace } from "@/lib/methods";
 import { getRunDetail } from "@/lib/runs";
 
 export const metadata: Metadata = { title: "Fit a series" };
@@ -33,6 +34,7 @@ export default async function FitPage({ params, searchParams }: { params: Promis
       from={from ? { id: from.id, version: from.version, title: from.title, options: from.options } : null}
       canSave={can(user, "fit:write")}
       engineVersion={ENGINE_VERSION}
+      method={await methodForWorkspace(db, user.labId, run.method_record_id)}
     />
   );
 }

@@ -1,0 +1,69 @@
+"use client";
+// A run's method: shown, and assigned or changed (with a reason) by those who upload runs.
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { Button } from "@/components/ui/button";
+import { Dialog } from "@/components/ui/dialog";
+import { Input, Select } from "@/components/ui/field";
+import { useToast } from "@/components/ui/toast";
+
+export function RunMethod({ runId, current, choices, canAssign }: { runId: number; current: { record_id: number; name: string } | null; choices: Array<{ record_id: number; name: string; version: number }>; canAssign: boolean }) {
+  const router = useRouter();
+  const toast = useToast();
+  const [open, setOpen] = useState(false);
+  const [choice, setChoice] = useState(String(current?.record_id ?? choices[0]?.record_id ?? ""));
+  const [reason, setReason] = useState("");
+  const [busy, setBusy] = useState(false);
+  async function assign() {
+    setBusy(true);
+    const res = await fetch(`/api/runs/${runId}/method`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ methodId: choice ? Number(choice) : null, reason }) });
+    const body = await res.json();
+    setBusy(false);
+    if (!res.ok) {
+      toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+      return;
+    }
+    toast(body.method ? `Method set to ${body.method.name} (v${body.method.version}).` : "Method cleared.", "pass");
+    setOpen(false);
+    setReason("");
+    router.refresh();
+  }
+  return (
+    <span data-testid="run-method">
+      {current ? (
+        <Link className="text-quartz-700 underline" href={`/methods/${current.record_id}`}>
+          {current.name}
+        </Link>
+      ) : (
+        <span className="text-ink-300">none</span>
+      )}
+      {canAssign && (
+        <Button size="sm" variant="quiet" className="ml-2" onClick={() => setOpen(true)}>
+          {current ? "Change" : "Assign"}
+        </Button>
+      )}
+      <Dialog open={open} onClose={() => setOpen(false)} title="Method of this run">
+        <form
+          className="space-y-4"
+          onSubmit={(e) => {
+            e.preventDefault();
+            void assign();
+          }}
+        >
+          <Select label="Method" value={choice} onChange={(e) => setChoice(e.target.value)} options={[{ value: "", label: "No method" }, ...choices.map((c) => ({ value: String(c.record_id), label: `${c.name} (v${c.version})` }))]} />
+          <Input label="Reason (required)" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={3} />
+          <p className="text-sm text-ink-500">Fits saved from now on are judged by the method&apos;s newest version; saved fits keep their verdict.</p>
+          <div className="flex justify-end gap-2">
+            <Button variant="secondary" onClick={() => setOpen(false)}>
+              Cancel
+            </Button>
+            <Button type="submit" disabled={busy || reason.trim().length < 3}>
+              Save
+            </Button>
+          </div>
+        </form>
+      </Dialog>
+    </span>
+  );
+}
