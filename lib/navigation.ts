@@ -52,6 +52,18 @@ export const AREAS: readonly Area[] = [
     purpose: "The people in this lab, their roles, invitations and locked accounts.",
   },
   {
+    href: "/admin/settings",
+    label: "Lab settings",
+    permission: "user:manage",
+    purpose: "Share links for outside reviewers, their default expiry, the upload limit and the password rules.",
+  },
+  {
+    href: "/admin/api-keys",
+    label: "Instrument keys",
+    permission: "user:manage",
+    purpose: "Keys for instrument PCs that push exports without a person signing in.",
+  },
+  {
     href: "/admin/audit",
     label: "Audit trail",
     permission: "audit:read",

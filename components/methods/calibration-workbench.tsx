@@ -71,9 +71,13 @@ export function CalibrationWorkbench({ saved, canSave }: { saved?: Saved; canSav
   const [readings, setReadings] = useState("");
   const [saving, setSaving] = useState(false);
 
-  const standards = rows
-    .map((r) => ({ concentration: toNumber(r.concentration), absorbance: toNumber(r.absorbance), replicate: Math.max(1, Math.round(toNumber(r.replicate) || 1)) }))
-    .filter((s) => Number.isFinite(s.concentration) && Number.isFinite(s.absorbance));
+  const standards = useMemo(
+    () =>
+      rows
+        .map((r) => ({ concentration: toNumber(r.concentration), absorbance: toNumber(r.absorbance), replicate: Math.max(1, Math.round(toNumber(r.replicate) || 1)) }))
+        .filter((s) => Number.isFinite(s.concentration) && Number.isFinite(s.absorbance)),
+    [rows],
+  );
   const result = useMemo((): { cal: Calibration } | { error: string } | null => {
     if (standards.length < 3) return null;
     try {
@@ -81,7 +85,7 @@ export function CalibrationWorkbench({ saved, canSave }: { saved?: Saved; canSav
     } catch (e) {
       return { error: (e as Error).message };
     }
-  }, [JSON.stringify(standards), origin, weighting, sigma, blankSd]); // eslint-disable-line react-hooks/exhaustive-deps
+  }, [standards, origin, weighting, sigma, blankSd]);
   const cal = result && "cal" in result ? result.cal : null;
   const prediction = useMemo(() => {
     if (!cal) return null;

@@ -1,6 +1,6 @@
 // Lab membership administration.
 import type { Db } from "@/db";
-import { clearFailedSignIns, findUserById, listLabMembers, listMembershipsOfUser, setMembershipRole, setUserDisabled } from "@/db/queries/users";
+import { clearFailedSignIns, findUserById, listLabMembers, pageLabMembers, listMembershipsOfUser, setMembershipRole, setUserDisabled } from "@/db/queries/users";
 import type { Knex } from "knex";
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
@@ -19,6 +19,14 @@ export async function listMembers(db: Db, labId: number): Promise<Member[]> {
   }));
 }
 
+/** One page of members for the admin list (sorted, filtered and paged on the server). */
+export async function pageMembers(db: Db, labId: number, q: { q?: string; sort: string; dir: "asc" | "desc"; page: number; pageSize: number }) {
+  const { rows, total } = await pageLabMembers(db, labId, q);
+  return {
+    rows: rows.map((r) => ({ userId: r.user_id, email: r.email, name: r.display_name, role: r.role, disabled: Boolean(r.disabled), lockedUntil: r.locked_until, failedSignIns: r.failed_sign_ins, since: r.since })),
+    total,
+  };
+}
 
 /** Unlock, deactivate (never delete: records stay attributed), reactivate, or change a role; each audited with a reason. */
 export async function changeMember(db: Knex, admin: SignedInUser, userId: number, change: MemberAction) {

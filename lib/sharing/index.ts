@@ -3,6 +3,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { Knex } from "knex";
 import { getFit } from "@/db/queries/fits";
+import { listLabMembers } from "@/db/queries/users";
 import { findShareLink, findShareLinkByTokenHash, insertShareLink, insertShareView, revokeShareLink, shareLinksOf } from "@/db/queries/sharing";
 import { getLabSettings } from "@/lib/admin/settings";
 import { recordAudit } from "@/lib/audit";
@@ -23,7 +24,13 @@ export async function createShareLink(
   if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
   const token = randomBytes(24).toString("base64url");
   const now = new Date();
-  const days = opts.days ?? (await getLabSettings(db, user.labId)).default_link_days ?? DEFAULT_SHARE_DAYS;
+  const settings = await getLabSettings(db, user.labId);
+  const days = opts.days ?? settings.default_link_days ?? DEFAULT_SHARE_DAYS;
+  if (opts.recipient && !settings.outside_links) {
+    const members = await listLabMembers(db, user.labId);
+    if (!members.some((m) => m.email.toLowerCase() === opts.recipient!.trim().toLowerCase()))
+      throw new AppError({ code: "forbidden", message: `${opts.recipient} is not a member of ${user.labName}, and this lab does not allow share links for outside reviewers (Lab settings).` });
+  }
   const expires = new Date(now.getTime() + days * 86_400_000).toISOString();
   const id = await db.transaction(async (trx) => {
     const linkId = await insertShareLink(trx, { lab_id: user.labId, token_sha256: tokenHash(token), object_type: "fit", object_id: fitId, recipient: opts.recipient ?? null, expires_at: expires, revoked_at: null, revoked_by: null, created_by: user.userId, created_at: now.toISOString() });

@@ -11,6 +11,7 @@ import { setDb } from "@/db";
 import { insertLab } from "@/db/queries/labs";
 import { insertMembership, insertUser } from "@/db/queries/users";
 import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
+import { changeLabSettings } from "@/lib/admin/settings";
 import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { startMailSink } from "@/lib/mail/sink";
@@ -68,6 +69,13 @@ afterAll(async () => {
 });
 
 describe("share links", () => {
+  it("go to outside reviewers only where the lab's settings allow it", async () => {
+    const refused = await share(1, { recipient: "qa.partner@larkspur.example" });
+    expect(refused.status).toBe(403);
+    expect(refused.body.error.message).toMatch(/not a member .* outside reviewers/);
+    await changeLabSettings(db, as.admin!, { outside_links: true, default_link_days: 14, upload_limit_mb: 50, password_min_length: 12, reason: "partner QA reviews this study" });
+  });
+
   it("stores only the token's hash, opens the pinned version and logs each view", async () => {
     const s = await share(1, { recipient: "qa.partner@larkspur.example" });
     expect(s.status).toBe(201);

@@ -1,62 +1,33 @@
 import type { Metadata } from "next";
-import { MemberActions } from "@/components/admin/member-actions";
+import { Invitations } from "@/components/admin/invitations";
+import { MemberTable } from "@/components/admin/member-table";
 import { PageHeader } from "@/components/shell/page-header";
-import { Badge } from "@/components/ui/badge";
-import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
-import { listMembers } from "@/lib/admin/members";
+import { listInvitations } from "@/lib/admin/invitations";
+import { pageMembers } from "@/lib/admin/members";
 import { requirePageUser } from "@/lib/auth/page";
 import { ROLE_LABELS, ROLES } from "@/lib/permissions";
+import { listQuerySchema } from "@/lib/schemas/methods";
 
 export const metadata: Metadata = { title: "Lab members" };
 
-export default async function MembersPage() {
+export default async function MembersPage({ searchParams }: { searchParams: Promise<Record<string, string>> }) {
   const user = await requirePageUser("user:manage", "/admin/members");
-  const members = await listMembers(await getDb(), user.labId);
+  const q = listQuerySchema.parse({ sort: "name", dir: "asc", ...(await searchParams) });
+  const db = await getDb();
+  const { rows, total } = await pageMembers(db, user.labId, q);
   const now = new Date();
+  const roles = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
   return (
     <>
-      <PageHeader title="Lab members" lede={`Everyone with an account in ${user.labName}, and the role each holds.`} />
-      <Table caption="Lab members">
-        <thead>
-          <tr>
-            <Th>Name</Th>
-            <Th>E-mail</Th>
-            <Th>Role</Th>
-            <Th>Account</Th>
-            <Th>Actions</Th>
-          </tr>
-        </thead>
-        <tbody>
-          {members.map((m) => {
-            const locked = m.lockedUntil && new Date(m.lockedUntil) > now;
-            return (
-              <tr key={m.userId}>
-                <Td className="font-semibold">{m.name}</Td>
-                <Td>{m.email}</Td>
-                <Td>{ROLE_LABELS[m.role]}</Td>
-                <Td>
-                  {m.disabled ? (
-                    <Badge tone="neutral">Disabled</Badge>
-                  ) : locked ? (
-                    <Badge tone="fault">Locked until {m.lockedUntil!.slice(11, 16)} UTC</Badge>
-                  ) : (
-                    <Badge tone="pass">Active</Badge>
-                  )}
-                </Td>
-                <Td>
-                  <MemberActions
-                    member={{ userId: m.userId, name: m.name, role: m.role, disabled: m.disabled, locked: Boolean(locked) }}
-                    roles={ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))}
-                    self={m.userId === user.userId}
-                  />
-                </Td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </Table>
-      <p className="mt-4 text-sm text-ink-500">Not built yet: invitations by e-mail. Accounts are never deleted: deactivate them.</p>
+      <PageHeader title="Lab members" lede={`Everyone with an account in ${user.labName}, and the role each holds. Accounts are never deleted: deactivate them, and their records stay attributed.`} />
+      <MemberTable
+        rows={rows.map((m) => ({ ...m, roleLabel: ROLE_LABELS[m.role], locked: Boolean(m.lockedUntil && new Date(m.lockedUntil) > now) }))}
+        state={{ total, page: q.page, pageSize: q.pageSize, sort: q.sort, dir: q.dir, q: q.q }}
+        roles={roles}
+        selfId={user.userId}
+      />
+      <Invitations invitations={await listInvitations(db, user.labId)} roles={roles} />
     </>
   );
 }
