@@ -10,6 +10,8 @@ import type { SignedInUser } from "@/lib/auth/sign-in";
 import { saveFit } from "@/lib/fits";
 import { createStudy } from "@/lib/studies";
 import { ingestExport } from "@/lib/ingest";
+import { createCalibration, createMethod } from "@/lib/methods";
+import { createCalibrationSchema, methodDefinitionSchema } from "@/lib/schemas/methods";
 import { demoFiles } from "./demo-files";
 import { insertMembership, insertUser } from "@/db/queries/users";
 import { recordAudit } from "@/lib/audit";
@@ -61,6 +63,41 @@ async function seedDemoRuns(db: Knex): Promise<void> {
   fs.mkdirSync(DEMO_FILES_DIR, { recursive: true });
   const memberships = await listMembershipsOfUser(db, analyst!.id);
   const asAnalyst: SignedInUser = { userId: analyst!.id, email: analyst!.email, name: analyst!.display_name, labId: lab!.id, labSlug: lab!.slug, labName: lab!.name, role: memberships[0]!.role };
+  const developer = await db("users").where({ email: DEMO_USERS.find((u) => u.role === "method_developer")!.email }).first();
+  const asDeveloper: SignedInUser = { ...asAnalyst, userId: developer!.id, email: developer!.email, name: developer!.display_name, role: "method_developer" };
+  // Six invented standards of corvane blue (µmol/L) and the method the stability runs follow.
+  const cal = await createCalibration(
+    db,
+    asDeveloper,
+    createCalibrationSchema.parse({
+      name: "Corvane blue standards, 590 nm (demo)",
+      analyte: "corvane blue",
+      concentration_unit: "µmol/L",
+      wavelength_nm: 590,
+      standards: [0, 2, 4, 6, 8, 10].map((c, i) => ({ concentration: c, absorbance: Number((0.0012 + 0.1231 * c + [0.0009, -0.0011, 0.0006, 0.0013, -0.0008, -0.0004][i]!).toFixed(4)) })),
+    }),
+  );
+  const method = await createMethod(
+    db,
+    asDeveloper,
+    methodDefinitionSchema.parse({
+      name: "Corvane blue fade, 590 nm (demo)",
+      analyte: "corvane blue",
+      wavelength_nm: 590,
+      path_length_cm: 1,
+      concentration: { kind: "calibration", calibration_id: cal.id },
+      models: ["first-order", "linearized"],
+      criteria: [
+        { kind: "converged" },
+        { kind: "r2_min", value: 0.995 },
+        { kind: "runs_z_max", value: 2.58 },
+        { kind: "rel_se_k_max", value: 0.05 },
+        { kind: "min_points", value: 20 },
+        { kind: "absorbance_window", min: 0.02, max: 1.5 },
+      ],
+      notes: "Demo method (invented). Corvane blue is fictional; in a real method, state the reagents' hazards and the disposal route here and follow your lab's safety data sheets.",
+    }),
+  );
   const studyFits: number[] = [];
   for (const f of demoFiles()) {
     const file = path.join(DEMO_FILES_DIR, f.name);
@@ -70,7 +107,7 @@ async function seedDemoRuns(db: Knex): Promise<void> {
       userId: analyst!.id,
       bytes: new Uint8Array(fs.readFileSync(file)),
       fileName: f.name,
-      mapping: { run: { study: "Corvane blue stability (demo)", sample: "corvane blue DEMO-7" } },
+      mapping: { run: { study: "Corvane blue stability (demo)", sample: "corvane blue DEMO-7", method_id: method.record_id } },
     });
     // A saved fit on each run's first channel, made through the same path as the fitting page.
     const s0 = stored.series[0]!;
