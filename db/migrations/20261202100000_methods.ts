@@ -94,10 +94,24 @@ export async function up(knex: Knex): Promise<void> {
       `CREATE TRIGGER methods_no_update BEFORE UPDATE ON methods WHEN NOT (OLD.record_id IS NULL AND NEW.record_id = OLD.id AND NEW.definition = OLD.definition AND NEW.content_hash = OLD.content_hash) BEGIN SELECT RAISE(ABORT, 'method versions are immutable'); END`,
     );
     await knex.raw(`CREATE TRIGGER methods_no_delete BEFORE DELETE ON methods BEGIN SELECT RAISE(ABORT, 'method versions are immutable'); END`);
+  } else {
+    await knex.raw(`CREATE OR REPLACE FUNCTION calibrations_refuse() RETURNS trigger AS $$
+      BEGIN RAISE EXCEPTION 'calibrations are immutable'; END; $$ LANGUAGE plpgsql`);
+    await knex.raw(`CREATE TRIGGER calibrations_immutable BEFORE UPDATE OR DELETE ON calibrations FOR EACH ROW EXECUTE FUNCTION calibrations_refuse()`);
+    await knex.raw(`CREATE OR REPLACE FUNCTION methods_refuse() RETURNS trigger AS $$
+      BEGIN
+        IF TG_OP = 'UPDATE' AND OLD.record_id IS NULL AND NEW.record_id = OLD.id AND NEW.definition = OLD.definition AND NEW.content_hash = OLD.content_hash THEN RETURN NEW; END IF;
+        RAISE EXCEPTION 'method versions are immutable';
+      END; $$ LANGUAGE plpgsql`);
+    await knex.raw(`CREATE TRIGGER methods_immutable BEFORE UPDATE OR DELETE ON methods FOR EACH ROW EXECUTE FUNCTION methods_refuse()`);
   }
 }
 
 export async function down(knex: Knex): Promise<void> {
+  if (!String(knex.client.config.client).includes("sqlite")) {
+    await knex.raw(`DROP FUNCTION IF EXISTS methods_refuse() CASCADE`);
+    await knex.raw(`DROP FUNCTION IF EXISTS calibrations_refuse() CASCADE`);
+  }
   await knex.schema.dropTable("api_keys");
   await knex.schema.dropTable("invitations");
   await knex.schema.dropTable("lab_settings");

@@ -1,0 +1,149 @@
+// Methods, calibration and administration as the lab uses them: the method developer enters six standards and writes
+// a method with acceptance criteria on that calibration; the analyst gives a run that method and sees each criterion
+// pass or fail on its fit; the administrator invites a colleague, the mail arrives in the local sink, and the invitee
+// sets a password and signs in with the role given.
+import fs from "node:fs";
+import path from "node:path";
+import { simpleParser } from "mailparser";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { Page } from "playwright-core";
+import { DEMO_USERS } from "@/db/seeds/demo";
+import { openBrowser, signedInPage } from "./chromium";
+
+const baseURL = inject("baseURL");
+const artifacts = inject("artifacts");
+const mailDir = inject("mailDir");
+const who = (role: string) => DEMO_USERS.find((u) => u.role === role)!;
+const closers: Array<() => Promise<void>> = [];
+const pages: Record<string, Page> = {};
+
+beforeAll(async () => {
+  for (const role of ["method_developer", "analyst", "admin"]) {
+    const { page, close } = await signedInPage(baseURL, who(role));
+    closers.push(close);
+    pages[role] = page;
+  }
+});
+afterAll(async () => {
+  for (const c of closers) await c();
+});
+
+// Six standards of an invented scenario (Larkspur's in-house blue, µmol/L), pasted as spreadsheet cells (tabs).
+const STANDARDS = ["Conc\tAbs\tRep", "0\t0.0021\t1", "1\t0.0634\t1", "2\t0.1262\t1", "4\t0.2493\t1", "6\t0.3747\t1", "8\t0.4990\t1"].join("\n");
+
+describe("methods and calibration", () => {
+  it("a method developer saves a calibration from six pasted standards and a method with criteria on it", async () => {
+    const p = pages.method_developer!;
+    await p.goto(`${baseURL}/methods/calibrations/new`);
+    await p.getByLabel("Name", { exact: true }).fill("Larkspur blue standards, bench 2");
+    await p.getByLabel("Analyte").fill("larkspur blue");
+    await p.getByLabel("Concentration unit").fill("µmol/L");
+    await p.getByLabel(/Cells from a spreadsheet/).fill(STANDARDS);
+    await p.getByRole("button", { name: "Use pasted rows" }).click();
+    await expect.poll(() => p.getByTestId("standards").locator("tbody tr").count()).toBe(6);
+    // Slope by OLS of the six standards (the same engine the server runs; its numbers are checked in unit tests).
+    await expect.poll(() => p.getByTestId("cal-slope").textContent()).toMatch(/^0\.062/);
+    await p.getByTestId("cal-lod").waitFor();
+    await p.screenshot({ path: path.join(artifacts, "calibration-new.png"), fullPage: true });
+    await p.getByTestId("save-calibration").click();
+    await p.waitForURL(/\/methods\/calibrations\/\d+$/);
+    await p.getByRole("heading", { name: "Larkspur blue standards, bench 2" }).waitFor();
+    expect(await p.getByTestId("cal-slope").textContent()).toMatch(/^0\.062/);
+
+    await p.goto(`${baseURL}/methods/new`);
+    await p.getByLabel("Method name").fill("Larkspur blue fade, bench 2");
+    await p.getByLabel("Analyte").fill("larkspur blue");
+    await p.getByLabel("Wavelength (nm)").fill("590");
+    await p.getByLabel("Concentration from").selectOption("calibration");
+    await p.getByLabel("Calibration curve").selectOption({ label: "Larkspur blue standards, bench 2 (larkspur blue)" });
+    await p.getByLabel("Use: r² at least").check();
+    await p.getByLabel("r² at least", { exact: true }).fill("0.9999");
+    await p.getByLabel("Use: points fitted at least").check();
+    await p.getByLabel("points fitted at least", { exact: true }).fill("20");
+    await p.getByLabel("Use: SE(k)/k at most (%)").check();
+    await p.getByLabel("SE(k)/k at most (%)", { exact: true }).fill("2");
+    await p.getByTestId("save-method").click();
+    await p.waitForURL(/\/methods\/\d+$/);
+    const criteria = await p.getByTestId("method-criteria").textContent();
+    expect(criteria).toContain("r² ≥ 0.9999");
+    expect(criteria).toContain("at least 20 points fitted");
+    expect(criteria).toContain("SE(k)/k ≤ 2 %");
+    await p.screenshot({ path: path.join(artifacts, "method.png"), fullPage: true });
+  });
+
+  it("the analyst gives a run that method; its fit shows pass or fail per criterion, also on the saved record", async () => {
+    const p = pages.analyst!;
+    await p.goto(`${baseURL}/runs`);
+    await p.getByRole("link", { name: "corvane-blue-25C-repeat-drift" }).click();
+    await p.getByTestId("run-method").getByRole("button", { name: "Change" }).click();
+    await p.getByLabel("Method", { exact: true }).selectOption({ label: "Larkspur blue fade, bench 2 (v1)" });
+    await p.getByLabel("Reason (required)").fill("bench 2 method applies to this repeat");
+    await p.getByRole("button", { name: "Save" }).click();
+    await p.getByTestId("run-method").getByRole("link", { name: "Larkspur blue fade, bench 2" }).waitFor();
+    await p.getByTestId("fit-link").first().click();
+    const panel = p.getByTestId("criteria-panel");
+    await panel.waitFor();
+    expect(await panel.textContent()).toContain("Larkspur blue fade, bench 2");
+    const verdicts = async () => Object.fromEntries(await panel.locator("li[data-criterion]").evaluateAll((els) => els.map((e) => [e.getAttribute("data-criterion"), e.getAttribute("data-pass")])));
+    await expect.poll(verdicts).toEqual({ r2_min: "false", min_points: "true", rel_se_k_max: "true" });
+    // The fit was converted by the method's calibration: concentrations, not absorbance.
+    expect(await p.getByLabel(/Convert by calibration/).isChecked()).toBe(true);
+    await p.screenshot({ path: path.join(artifacts, "fit-with-method.png"), fullPage: true });
+    await p.getByTestId("save-fit").click();
+    await p.waitForURL(/\/fits\/\d+$/);
+    const rec = p.getByTestId("record-criteria");
+    await rec.waitFor();
+    expect(await rec.textContent()).toMatch(/1 not met/);
+    expect(await rec.locator("tr[data-criterion='r2_min']").textContent()).toMatch(/fail/);
+    expect(await rec.locator("tr[data-criterion='min_points']").textContent()).toMatch(/pass/);
+    await p.goto(`${baseURL}/fits`);
+    expect(await p.getByTestId("fit-criteria").first().textContent()).toMatch(/not met|all met/);
+  });
+});
+
+describe("administration", () => {
+  it("an admin invites a colleague; the mail arrives in the sink; the invitee sets a password and signs in as reviewer", async () => {
+    const p = pages.admin!;
+    await p.goto(`${baseURL}/admin/members`);
+    await p.getByLabel("E-mail", { exact: true }).fill("pia.ostrander@larkspur.example");
+    await p.getByLabel("Name", { exact: true }).fill("Pia Ostrander");
+    await p.getByLabel("Role", { exact: true }).selectOption("reviewer");
+    await p.getByTestId("send-invitation").click();
+    await p.getByTestId("invitation-pia.ostrander@larkspur.example").getByText("open").waitFor();
+
+    const findMail = async () => {
+      for (const f of fs.existsSync(mailDir) ? fs.readdirSync(mailDir).sort() : []) {
+        const m = await simpleParser(fs.readFileSync(path.join(mailDir, f)));
+        const to = Array.isArray(m.to) ? m.to.map((x) => x.text).join() : (m.to?.text ?? "");
+        if (to.includes("pia.ostrander@larkspur.example") && /invited/.test(m.subject ?? "")) return m.text ?? "";
+      }
+      return null;
+    };
+    await expect.poll(findMail, { timeout: 10_000 }).not.toBeNull();
+    const link = (await findMail())!.match(/https?:\/\/\S+\/invite\/[A-Za-z0-9_-]+/)![0];
+
+    const { context, close } = await openBrowser();
+    closers.push(close);
+    const q = await context.newPage();
+    await q.goto(link.replace(/^https?:\/\/[^/]+/, baseURL));
+    await q.getByRole("heading", { name: "Welcome, Pia Ostrander" }).waitFor();
+    await q.getByLabel("New password").fill("short");
+    await q.getByLabel("The same password again").fill("short");
+    await q.getByRole("button", { name: "Set password and sign in" }).click();
+    expect(await q.getByTestId("set-password-error").textContent()).toMatch(/at least 12 characters/);
+    await q.getByLabel("New password").fill("heron-quartz-tide-2026");
+    await q.getByLabel("The same password again").fill("heron-quartz-tide-2026");
+    await q.getByRole("button", { name: "Set password and sign in" }).click();
+    await q.getByTestId("workspace-nav").waitFor();
+    const me = await q.evaluate(async () => (await fetch("/api/me")).json());
+    expect(me).toMatchObject({ user: { email: "pia.ostrander@larkspur.example" }, role: "reviewer" });
+    await q.getByTestId("workspace-nav").getByRole("link", { name: "Review queue" }).waitFor();
+    await q.screenshot({ path: path.join(artifacts, "invitee-signed-in.png"), fullPage: true });
+    // The link works once.
+    await q.goto(link.replace(/^https?:\/\/[^/]+/, baseURL));
+    expect(await q.getByTestId("invite-message").textContent()).toMatch(/used already/);
+    await p.reload();
+    await p.getByTestId("invitation-pia.ostrander@larkspur.example").getByText("accepted").waitFor();
+    await p.screenshot({ path: path.join(artifacts, "members.png"), fullPage: true });
+  });
+});
