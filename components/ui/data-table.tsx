@@ -54,7 +54,8 @@ export function DataTable<T>({
   // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: rows,
-    columns,
+    // Sorting happens on the server, but TanStack only offers it on columns with an accessor: give sortable ones a stub.
+    columns: columns.map((c) => (c.enableSorting === false || "accessorFn" in c ? c : { ...c, accessorFn: () => null })) as DataColumn<T>[],
     state: { sorting },
     manualSorting: true,
     manualPagination: true,

@@ -105,6 +105,21 @@ describe("invitations", () => {
   });
 });
 
+describe("members list on the server", () => {
+  it("sorts, filters and pages in SQL, within the lab", async () => {
+    const { pageMembers } = await import("@/lib/admin/members");
+    const all = await pageMembers(db, admin.labId, { sort: "email", dir: "desc", page: 1, pageSize: 2 });
+    expect(all.rows).toHaveLength(2);
+    expect(all.total).toBeGreaterThanOrEqual(5);
+    expect(all.rows[0]!.email >= all.rows[1]!.email).toBe(true);
+    const page2 = await pageMembers(db, admin.labId, { sort: "email", dir: "desc", page: 2, pageSize: 2 });
+    expect(page2.rows[0]!.email < all.rows[1]!.email).toBe(true);
+    const reviewers = await pageMembers(db, admin.labId, { q: "reviewer", sort: "name", dir: "asc", page: 1, pageSize: 25 });
+    expect(reviewers.rows.every((r) => r.role === "reviewer")).toBe(true);
+    expect((await pageMembers(db, admin.labId, { q: "fennwick", sort: "name", dir: "asc", page: 1, pageSize: 25 })).total).toBe(0);
+  });
+});
+
 describe("lab settings", () => {
   it("the upload limit refuses a larger file with 413 and writes nothing", async () => {
     await changeLabSettings(db, admin, { outside_links: false, default_link_days: 14, upload_limit_mb: 1, password_min_length: 12, reason: "small instrument files only" });

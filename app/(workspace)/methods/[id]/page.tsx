@@ -2,7 +2,6 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/shell/page-header";
-import { Badge } from "@/components/ui/badge";
 import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
 import { requirePageUser } from "@/lib/auth/page";
@@ -89,11 +88,9 @@ export default async function MethodPage({ params }: { params: Promise<{ id: str
           {d.criteria.length === 0 ? (
             <p className="text-sm text-ink-500">None: fits of runs with this method are not judged.</p>
           ) : (
-            <ul className="space-y-1 text-sm" data-testid="method-criteria">
+            <ul className="list-disc space-y-1 pl-5 text-sm" data-testid="method-criteria">
               {d.criteria.map((c) => (
-                <li key={c.kind}>
-                  <Badge tone="accent">criterion</Badge> {describeCriterion(c)}
-                </li>
+                <li key={c.kind}>{describeCriterion(c)}</li>
               ))}
             </ul>
           )}
