@@ -1,7 +1,6 @@
 // Lab administration beyond members: invitations by e-mail (through the local SMTP sink), password rules, lab
 // settings, and instrument API keys with POST /api/ingest (Bearer): revoked keys, lab scoping, bad files, rate limit.
 import fs from "node:fs";
-import os from "node:os";
 import path from "node:path";
 import { simpleParser } from "mailparser";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -17,26 +16,23 @@ import { changeLabSettings, getLabSettings, passwordProblems } from "@/lib/admin
 import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { ingestExport } from "@/lib/ingest";
-import { startMailSink } from "@/lib/mail/sink";
 import { freshDb } from "./../helpers/db";
+import { testMailSink } from "./../helpers/mail";
 
 let db: Knex;
 let admin: SignedInUser;
 let otherAdmin: SignedInUser;
-let sink: Awaited<ReturnType<typeof startMailSink>>;
-const mailDir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-invite-"));
+let sink: Awaited<ReturnType<typeof testMailSink>>;
 const mails = async () =>
   Promise.all(
-    fs.readdirSync(mailDir).filter((f) => f.endsWith(".eml")).sort().map(async (f) => {
-      const m = await simpleParser(fs.readFileSync(path.join(mailDir, f)));
+    fs.readdirSync(sink.dir).filter((f) => f.endsWith(".eml")).sort().map(async (f) => {
+      const m = await simpleParser(fs.readFileSync(path.join(sink.dir, f)));
       return { to: Array.isArray(m.to) ? m.to.map((x) => x.text).join(", ") : (m.to?.text ?? ""), subject: m.subject ?? "", text: m.text ?? "" };
     }),
   );
 
 beforeAll(async () => {
-  sink = await startMailSink(mailDir);
-  process.env.SMTP_URL = `smtp://127.0.0.1:${sink.port}`;
-  process.env.NEXTAUTH_URL = "http://halflight.test";
+  sink = await testMailSink("invite");
   db = await freshDb();
   setDb(db);
   await seedDemoWhenEmpty(db);
@@ -49,8 +45,7 @@ beforeAll(async () => {
   otherAdmin = await signInWithPassword(db, "oda.brenn@fennwick.example", "fennwick-admin-pass");
 });
 afterAll(async () => {
-  delete process.env.SMTP_URL;
-  await sink.close();
+  await sink.stop();
   await db.destroy();
 });
 

@@ -2,7 +2,6 @@
 // report's text (read back with poppler's pdftotext, Debian's poppler-utils).
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
-import os from "node:os";
 import path from "node:path";
 import { simpleParser } from "mailparser";
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
@@ -14,11 +13,11 @@ import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { changeLabSettings } from "@/lib/admin/settings";
 import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
-import { startMailSink } from "@/lib/mail/sink";
 import { fitReportPdf } from "@/lib/reports/fit-pdf";
 import { decideFit, submitFit } from "@/lib/reviews";
 import { openShareLink } from "@/lib/sharing";
 import { freshDb } from "./../helpers/db";
+import { testMailSink } from "./../helpers/mail";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
 vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
@@ -27,8 +26,7 @@ const ctx = (params: Record<string, string> = {}) => ({ params: Promise.resolve(
 let db: Knex;
 const as: Record<string, SignedInUser> = {};
 const pw = (role: string) => DEMO_USERS.find((u) => u.role === role)!.password;
-let sink: Awaited<ReturnType<typeof startMailSink>>;
-const mailDir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-mail-"));
+let sink: Awaited<ReturnType<typeof testMailSink>>;
 
 async function share(fitId: number, body: unknown) {
   const { POST } = await import("@/app/api/fits/[id]/share/route");
@@ -40,7 +38,7 @@ async function open(token: string) {
   const res = await GET(new Request(`http://halflight.test/api/share/${token}`), ctx({ token }));
   return { status: res.status, body: await res.json() };
 }
-const raw = () => fs.readdirSync(mailDir).filter((f) => f.endsWith(".eml")).sort().map((f) => fs.readFileSync(path.join(mailDir, f)));
+const raw = () => fs.readdirSync(sink.dir).filter((f) => f.endsWith(".eml")).sort().map((f) => fs.readFileSync(path.join(sink.dir, f)));
 /** Each message decoded (headers may be RFC 2047-encoded) as "To: …\nSubject: …\n\ntext". */
 async function decoded(from = 0): Promise<string[]> {
   return Promise.all(raw().slice(from).map(async (b) => {
@@ -51,9 +49,7 @@ async function decoded(from = 0): Promise<string[]> {
 }
 
 beforeAll(async () => {
-  sink = await startMailSink(mailDir);
-  process.env.SMTP_URL = `smtp://127.0.0.1:${sink.port}`;
-  process.env.NEXTAUTH_URL = "http://halflight.test";
+  sink = await testMailSink("mail");
   db = await freshDb();
   setDb(db);
   await seedDemoWhenEmpty(db, new Date(), { runs: true });
@@ -63,8 +59,7 @@ beforeEach(() => {
   session.current = as.analyst!;
 });
 afterAll(async () => {
-  delete process.env.SMTP_URL;
-  await sink.close();
+  await sink.stop();
   await db.destroy();
 });
 
@@ -128,7 +123,7 @@ describe("review mail and the PDF report", () => {
     expect((await decoded(before)).some((m) => m.includes("To: amara.quist@larkspur.example") && m.includes("Subject: Approved:"))).toBe(true);
 
     const pdf = await fitReportPdf(db, as.analyst!.labId, as.analyst!.labName, 2);
-    const file = path.join(mailDir, "..", `report-${Date.now()}.pdf`);
+    const file = path.join(sink.dir, "..", `report-${Date.now()}.pdf`);
     fs.writeFileSync(file, pdf.bytes);
     const text = spawnSync("pdftotext", ["-layout", file, "-"], { encoding: "utf8" });
     expect(text.status, "pdftotext (Debian's poppler-utils) is needed").toBe(0);
