@@ -58,6 +58,9 @@ export function DataTable<T>({
     columns: columns.map((c) => (c.enableSorting === false || "accessorFn" in c ? c : { ...c, accessorFn: () => null })) as DataColumn<T>[],
     state: { sorting },
     manualSorting: true,
+    // One column is always sorted; a click turns it ascending first, then the other way.
+    enableSortingRemoval: false,
+    sortDescFirst: false,
     manualPagination: true,
     manualFiltering: true,
     rowCount: state.total,
