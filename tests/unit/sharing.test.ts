@@ -132,5 +132,9 @@ describe("review mail and the PDF report", () => {
     expect(text.stdout).toContain("Amara Quist · AUTHORED");
     expect(text.stdout.replace(/\s+/g, "")).toContain(hash);
     expect(text.stdout).toMatch(/fit\.approved/);
+    // The demo run follows the demo method: its verdict per criterion is in the report.
+    expect(text.stdout).toContain("Method criteria: all met");
+    expect(text.stdout).toMatch(/PASS\s+the fit converged: yes/);
+    expect(text.stdout).toMatch(/PASS\s+at least 20 points fitted: 61/);
   });
 });
