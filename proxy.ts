@@ -14,6 +14,7 @@ export function proxy(req: NextRequest) {
 }
 
 export const config = {
-  // Pages only: the API answers 401 itself; sign-in, invitation links, assets and fonts stay open.
-  matcher: ["/((?!api|sign-in|invite|_next|favicon.ico|fonts).*)"],
+  // Pages only: the API answers 401 itself; sign-in, invitation and share links (which check for themselves), assets
+  // and fonts stay open.
+  matcher: ["/((?!api|sign-in|invite|share|_next|favicon.ico|fonts).*)"],
 };

@@ -43,7 +43,7 @@ export function LabSettingsForm({ initial }: { initial: { outside_links: boolean
         <input type="checkbox" checked={outside} onChange={(e) => setOutside(e.target.checked)} className="mt-1" />
         <span>
           <span className="font-semibold">Share links may be sent to outside reviewers</span>
-          <span className="block text-ink-500">Off: links may only be sent to members of this lab. Links always open read-only, for one pinned version, and every opening is logged.</span>
+          <span className="block text-ink-500">On: a link may be mailed to someone outside the lab, who opens that one pinned version read-only without an account. Off: links go to members only, who sign in to open them. Every opening is logged.</span>
         </span>
       </label>
       <div className="grid gap-4 sm:grid-cols-3">

@@ -15,15 +15,20 @@ import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/n
 import { can } from "@/lib/permissions";
 
 
-/** One fit record version as a page body: used by /fits/[id] and by share links (/share/[token]). */
-export async function FitRecordView({ user, id, banner }: { user: SignedInUser; id: number; banner?: React.ReactNode }) {
+/**
+ * One fit record version as a page body: used by /fits/[id] and by share links (/share/[token]). Without a user it is
+ * the read-only view an outside reviewer opens from a link: the record's numbers, no actions, exports or audit trail.
+ */
+export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { user: SignedInUser | null; labId?: number; id: number; banner?: React.ReactNode }) {
   const db = await getDb();
-  const rec = await getFitRecord(db, user.labId, Number(id)).catch((e: unknown) => {
+  const labId = user?.labId ?? labIdGiven!;
+  const outside = user === null;
+  const rec = await getFitRecord(db, labId, Number(id)).catch((e: unknown) => {
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
   });
-  const versions = await fitVersions(db, user.labId, rec.id);
-  const audit = await listAuditTrail(db, user.labId, { limit: 200, objectType: "fit", objectId: String(rec.record_id) });
+  const versions = await fitVersions(db, labId, rec.id);
+  const audit = outside ? [] : await listAuditTrail(db, labId, { limit: 200, objectType: "fit", objectId: String(rec.record_id) });
   const newest = versions.at(-1)!;
   const k = rec.primary.k;
   return (
@@ -32,6 +37,7 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
         title={rec.title}
         lede={`Version ${rec.version} of ${versions.length} · ${rec.run.name} · ${rec.series.name} · saved ${rec.created_at.slice(0, 16).replace("T", " ")} UTC by ${rec.author ?? "—"}`}
         actions={
+          outside ? undefined : (
           <div className="flex flex-wrap gap-2">
             <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/export?kind=data`} data-testid="export-data">
               Data CSV
@@ -48,6 +54,7 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
               </Link>
             )}
           </div>
+          )
         }
       />
       {banner}
@@ -71,11 +78,13 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
         ))}
         <p className="mt-3 text-xs text-ink-500">An estimate for qualified review: shelf-life and release decisions follow your lab&apos;s SOPs and local regulations.</p>
       </section>
-      {rec.results.method_evaluation && <MethodVerdict ev={rec.results.method_evaluation} />}
-      <div className="mb-6 space-y-6">
-        <ReviewPanel fitId={rec.id} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
-        {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
-      </div>
+      {rec.results.method_evaluation && <MethodVerdict ev={rec.results.method_evaluation} linked={!outside} />}
+      {user && (
+        <div className="mb-6 space-y-6">
+          <ReviewPanel fitId={rec.id} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
+          {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
+        </div>
+      )}
       <div className="grid gap-6 xl:grid-cols-2">
         <section>
           <h2 className="mb-2 text-lg font-semibold">Parameters</h2>
@@ -121,7 +130,7 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
           <ol className="space-y-2" data-testid="versions">
             {versions.map((v) => (
               <li key={v.id} className={`rounded-cell border px-3 py-2 text-sm ${v.id === rec.id ? "border-quartz-600 bg-quartz-100" : "border-ink-100 bg-paper-raised"}`}>
-                <Link href={`/fits/${v.id}`} className="font-semibold text-quartz-700 hover:underline">Version {v.version}</Link>
+                {outside ? <span className="font-semibold">Version {v.version}</span> : <Link href={`/fits/${v.id}`} className="font-semibold text-quartz-700 hover:underline">Version {v.version}</Link>}
                 <span className="text-ink-500"> · {v.created_at.slice(0, 16).replace("T", " ")} UTC · {v.author ?? "—"} · k = {formatWithUncertainty(v.k, v.k_se)} s⁻¹</span>
                 {v.reason && <p className="mt-1">Why: {v.reason}</p>}
                 <ul className="mt-1 list-disc pl-5 text-ink-700">{v.changes.map((c) => <li key={c}>{c}</li>)}</ul>
@@ -130,6 +139,7 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
           </ol>
         </section>
       </div>
+      {!outside && (
       <section className="mt-8" aria-label="Audit events of this record">
         <h2 className="mb-2 text-lg font-semibold">Audit events of this record</h2>
         <ol className="space-y-1 font-mono text-xs" data-testid="record-audit">
@@ -142,11 +152,12 @@ export async function FitRecordView({ user, id, banner }: { user: SignedInUser; 
           ))}
         </ol>
       </section>
+      )}
     </>
   );
 }
 
-function MethodVerdict({ ev }: { ev: NonNullable<FitRecordData["results"]["method_evaluation"]> }) {
+function MethodVerdict({ ev, linked }: { ev: NonNullable<FitRecordData["results"]["method_evaluation"]>; linked: boolean }) {
   return (
     <section className="mb-6 rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Method criteria" data-testid="record-criteria">
       <h2 className="text-lg font-semibold">
@@ -154,7 +165,8 @@ function MethodVerdict({ ev }: { ev: NonNullable<FitRecordData["results"]["metho
         {ev.results.length === 0 ? <Badge tone="neutral">none set</Badge> : ev.passed ? <Badge tone="pass">all met</Badge> : <Badge tone="fault">{ev.failed} not met</Badge>}
       </h2>
       <p className="mt-1 text-sm text-ink-500">
-        Judged at save by <Link className="text-quartz-700 underline" href={`/methods/${ev.method.id}`}>{ev.method.name} v{ev.method.version}</Link> on the {ev.model} fit.
+        Judged at save by{" "}
+        {linked ? <Link className="text-quartz-700 underline" href={`/methods/${ev.method.id}`}>{ev.method.name} v{ev.method.version}</Link> : `${ev.method.name} v${ev.method.version}`} on the {ev.model} fit.
       </p>
       {ev.results.length > 0 && (
         <div className="mt-3">

@@ -59,18 +59,38 @@ export async function revokeLink(db: Knex, user: SignedInUser, linkId: number) {
   return { revoked_at: at };
 }
 
+function refuseIfOver(l: { revoked_at: string | null; expires_at: string }, now: Date): void {
+  if (l.revoked_at) throw new AppError({ code: "gone", message: `This share link was revoked on ${l.revoked_at.slice(0, 16).replace("T", " ")} UTC. Ask the sender for a new one.` });
+  if (Date.parse(l.expires_at) <= now.getTime()) throw new AppError({ code: "gone", message: `This share link expired on ${l.expires_at.slice(0, 16).replace("T", " ")} UTC. Ask the sender for a new one.` });
+}
+
 /** Opens a link for a signed-in member of its lab: the pinned version's id, or a plain 410 when it is over. */
 export async function openShareLink(db: Knex, user: SignedInUser, token: string, now = new Date()) {
   const l = await findShareLinkByTokenHash(db, tokenHash(token));
   if (!l || l.lab_id !== user.labId) throw new AppError({ code: "not_found", message: "This share link does not exist, or belongs to another lab." });
-  if (l.revoked_at) throw new AppError({ code: "gone", message: `This share link was revoked on ${l.revoked_at.slice(0, 16).replace("T", " ")} UTC. Ask the sender for a new one.` });
-  if (Date.parse(l.expires_at) <= now.getTime()) throw new AppError({ code: "gone", message: `This share link expired on ${l.expires_at.slice(0, 16).replace("T", " ")} UTC. Ask the sender for a new one.` });
+  refuseIfOver(l, now);
   const at = now.toISOString();
   await db.transaction(async (trx) => {
     await insertShareView(trx, l.id, user.userId, at);
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.viewed", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
   });
   return { fit_id: l.object_id, expires_at: l.expires_at, recipient: l.recipient };
+}
+
+/**
+ * Opens a link without an account, for an outside reviewer: only where the link's lab allows outside reviewers (Lab
+ * settings); read-only, the one pinned version. Each opening is an audit event naming the link and its recipient.
+ * Where the lab does not allow it, the answer is 401: sign in as a member.
+ */
+export async function openShareLinkOutside(db: Knex, token: string, now = new Date()) {
+  const l = await findShareLinkByTokenHash(db, tokenHash(token));
+  if (!l) throw new AppError({ code: "not_found", message: "This share link does not exist." });
+  if (!(await getLabSettings(db, l.lab_id)).outside_links) throw new AppError({ code: "unauthorized", message: "Sign in to open this link: its lab shares records with its members only." });
+  refuseIfOver(l, now);
+  await db.transaction(async (trx) => {
+    await recordAudit(trx, { labId: l.lab_id, actorUserId: null, actorLabel: `outside reviewer via link ${l.id}${l.recipient ? ` (${l.recipient})` : ""}`, action: "share.viewed_outside", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
+  });
+  return { fit_id: l.object_id, lab_id: l.lab_id, expires_at: l.expires_at, recipient: l.recipient };
 }
 
 export async function listShareLinks(db: Knex, labId: number, fitId: number) {

@@ -150,4 +150,29 @@ describe("administration", () => {
     await expect.poll(() => p.url()).toMatch(/sort=name&dir=desc/);
     await expect.poll(() => p.locator("tbody tr").first().getAttribute("data-testid")).toBe("member-teodor.vale@larkspur.example");
   });
+
+  it("with outside reviewers allowed in Lab settings, a mailed link opens read-only without an account", async () => {
+    const p = pages.admin!;
+    await p.goto(`${baseURL}/admin/settings`);
+    await p.getByLabel(/Share links may be sent to outside reviewers/).check();
+    await p.getByLabel("Why this change (required)").fill("partner QA reviews the corvane study");
+    await p.getByRole("button", { name: "Save settings" }).click();
+    await p.getByText("Settings saved").waitFor();
+    const a = pages.analyst!;
+    await a.goto(`${baseURL}/fits`);
+    const shared = await a.evaluate(async () => {
+      const r = await fetch("/api/fits/1/share", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ recipient: "qa.partner@fennwick.example" }) });
+      return { status: r.status, body: await r.json() };
+    });
+    expect(shared.status).toBe(201);
+    const { context, close } = await openBrowser();
+    closers.push(close);
+    const q = await context.newPage();
+    await q.goto(`${baseURL}${shared.body.path}`);
+    await q.getByTestId("share-banner").getByText(/Shared with you read-only/).waitFor();
+    await q.getByTestId("record-k").waitFor();
+    expect(await q.getByTestId("report-pdf").count()).toBe(0);
+    expect(await q.getByLabel("Audit events of this record").count()).toBe(0);
+    await q.screenshot({ path: path.join(artifacts, "share-outside.png"), fullPage: true });
+  });
 });

@@ -15,7 +15,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { fitReportPdf } from "@/lib/reports/fit-pdf";
 import { decideFit, submitFit } from "@/lib/reviews";
-import { openShareLink } from "@/lib/sharing";
+import { openShareLink, openShareLinkOutside } from "@/lib/sharing";
 import { freshDb } from "./../helpers/db";
 import { testMailSink } from "./../helpers/mail";
 
@@ -69,6 +69,19 @@ describe("share links", () => {
     expect(refused.status).toBe(403);
     expect(refused.body.error.message).toMatch(/not a member .* outside reviewers/);
     await changeLabSettings(db, as.admin!, { outside_links: true, default_link_days: 14, upload_limit_mb: 50, password_min_length: 12, reason: "partner QA reviews this study" });
+  });
+
+  it("opens read-only without an account only while the lab allows outside reviewers; each opening is audited", async () => {
+    const s = await share(1, { recipient: "qa.partner@larkspur.example" });
+    const token = s.body.path.split("/").pop();
+    const opened = await openShareLinkOutside(db, token);
+    expect(opened).toMatchObject({ fit_id: 1, lab_id: as.analyst!.labId, recipient: "qa.partner@larkspur.example" });
+    const ev = await db("audit_events").where({ action: "share.viewed_outside" }).orderBy("id", "desc").first();
+    expect(ev).toMatchObject({ actor_user_id: null, actor_label: `outside reviewer via link ${s.body.id} (qa.partner@larkspur.example)` });
+    await changeLabSettings(db, as.admin!, { outside_links: false, default_link_days: 14, upload_limit_mb: 50, password_min_length: 12, reason: "partner review over" });
+    await expect(openShareLinkOutside(db, token)).rejects.toMatchObject({ code: "unauthorized" });
+    await changeLabSettings(db, as.admin!, { outside_links: true, default_link_days: 14, upload_limit_mb: 50, password_min_length: 12, reason: "partner QA again" });
+    await expect(openShareLinkOutside(db, "A".repeat(32))).rejects.toMatchObject({ code: "not_found" });
   });
 
   it("stores only the token's hash, opens the pinned version and logs each view", async () => {
