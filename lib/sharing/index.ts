@@ -3,6 +3,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { Knex } from "knex";
 import { getFit } from "@/db/queries/fits";
+import { findLabById } from "@/db/queries/labs";
 import { listLabMembers } from "@/db/queries/users";
 import { findShareLink, findShareLinkByTokenHash, insertShareLink, insertShareView, revokeShareLink, shareLinksOf } from "@/db/queries/sharing";
 import { getLabSettings } from "@/lib/admin/settings";
@@ -90,7 +91,8 @@ export async function openShareLinkOutside(db: Knex, token: string, now = new Da
   await db.transaction(async (trx) => {
     await recordAudit(trx, { labId: l.lab_id, actorUserId: null, actorLabel: `outside reviewer via link ${l.id}${l.recipient ? ` (${l.recipient})` : ""}`, action: "share.viewed_outside", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
   });
-  return { fit_id: l.object_id, lab_id: l.lab_id, expires_at: l.expires_at, recipient: l.recipient };
+  const lab = await findLabById(db, l.lab_id);
+  return { fit_id: l.object_id, lab_id: l.lab_id, lab_name: lab?.name ?? "", expires_at: l.expires_at, recipient: l.recipient };
 }
 
 export async function listShareLinks(db: Knex, labId: number, fitId: number) {

@@ -169,7 +169,7 @@ describe("administration", () => {
     closers.push(close);
     const q = await context.newPage();
     await q.goto(`${baseURL}${shared.body.path}`);
-    await q.getByTestId("share-banner").getByText(/Shared with you read-only/).waitFor();
+    await q.getByTestId("share-banner").getByText(/Larkspur Stability Services shared this with you read-only/).waitFor();
     await q.getByTestId("record-k").waitFor();
     expect(await q.getByTestId("report-pdf").count()).toBe(0);
     expect(await q.getByLabel("Audit events of this record").count()).toBe(0);

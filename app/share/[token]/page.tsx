@@ -15,7 +15,7 @@ export default async function SharePage({ params }: { params: Promise<{ token: s
   const { token } = await params;
   const session = await getSessionUser();
   const user = session ?? null;
-  let opened: { fit_id: number; expires_at: string; lab_id?: number };
+  let opened: { fit_id: number; expires_at: string; lab_id?: number; lab_name?: string };
   try {
     opened = user ? await openShareLink(await getDb(), user, token) : await openShareLinkOutside(await getDb(), token);
   } catch (e) {
@@ -45,7 +45,7 @@ export default async function SharePage({ params }: { params: Promise<{ token: s
             </p>
           ) : (
             <p className="mb-4 rounded-cell bg-quartz-100 px-4 py-2 text-sm text-quartz-700" data-testid="share-banner">
-              Shared with you read-only: this one version of the record, as it was saved (the link expires {opened.expires_at.slice(0, 10)}; each opening is logged). To comment or sign, ask the lab for a reviewer account.
+              {opened.lab_name} shared this with you read-only: one version of the record, as it was saved (the link expires {opened.expires_at.slice(0, 10)}; each opening is logged). To comment or sign, ask the lab for a reviewer account.
             </p>
           )
         }
