@@ -19,13 +19,13 @@ const MODELS = [
 ] as const;
 
 type Kind = Criterion["kind"];
-const CRITERIA: Array<{ kind: Kind; label: string; fields: Array<{ key: "value" | "min" | "max"; label: string; fallback: string; scale?: number }> }> = [
-  { kind: "r2_min", label: "r² at least", fields: [{ key: "value", label: "r² at least", fallback: "0.995" }] },
-  { kind: "runs_z_max", label: "runs test |z| at most", fields: [{ key: "value", label: "runs test |z| at most", fallback: "1.96" }] },
-  { kind: "rel_se_k_max", label: "SE(k)/k at most (%)", fields: [{ key: "value", label: "SE(k)/k at most (%)", fallback: "5", scale: 0.01 }] },
-  { kind: "min_points", label: "points fitted at least", fields: [{ key: "value", label: "points fitted at least", fallback: "20" }] },
-  { kind: "absorbance_window", label: "readings within", fields: [{ key: "min", label: "readings from (AU)", fallback: "0.1" }, { key: "max", label: "readings to (AU)", fallback: "1.5" }] },
-  { kind: "converged", label: "the fit converged", fields: [] },
+const CRITERIA: Array<{ kind: Kind; name: string; label: string; fields: Array<{ key: "value" | "min" | "max"; label: string; fallback: string; scale?: number }> }> = [
+  { kind: "r2_min", name: "Goodness of fit", label: "r² at least", fields: [{ key: "value", label: "r² at least", fallback: "0.995" }] },
+  { kind: "runs_z_max", name: "Random residuals", label: "runs test |z| at most", fields: [{ key: "value", label: "runs test |z| at most", fallback: "1.96" }] },
+  { kind: "rel_se_k_max", name: "Precision of k", label: "SE(k)/k at most (%)", fields: [{ key: "value", label: "SE(k)/k at most (%)", fallback: "5", scale: 0.01 }] },
+  { kind: "min_points", name: "Enough points", label: "points fitted at least", fields: [{ key: "value", label: "points fitted at least", fallback: "20" }] },
+  { kind: "absorbance_window", name: "Reading window", label: "readings within", fields: [{ key: "min", label: "readings from (AU)", fallback: "0.1" }, { key: "max", label: "readings to (AU)", fallback: "1.5" }] },
+  { kind: "converged", name: "Convergence", label: "the fit converged", fields: [] },
 ];
 
 export function MethodForm({
@@ -214,7 +214,7 @@ export function MethodForm({
             <div key={c.kind} className="flex flex-wrap items-end gap-3 rounded-cell border border-ink-100 p-2">
               <label className="flex items-center gap-2 text-sm font-semibold">
                 <input type="checkbox" checked={criteria[c.kind].on} onChange={(e) => setCriteria({ ...criteria, [c.kind]: { ...criteria[c.kind], on: e.target.checked } })} aria-label={`Use: ${c.label}`} />
-                {c.label}
+                <span className="w-32">{c.name}</span>
               </label>
               {c.fields.map((f) => (
                 <div key={f.key} className="w-32">
