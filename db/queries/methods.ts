@@ -1,15 +1,10 @@
 // Methods (versioned), calibrations (immutable), and a run's method.
 import { insertedId } from "./ids";
+import { pageOf, type PageQuery } from "./paging";
 import type { Db } from "@/db";
 import type { DbCalibrationRow, DbMethodRow } from "@/db/tables";
 
-export interface ListQuery {
-  q?: string;
-  sort: string;
-  dir: "asc" | "desc";
-  page: number;
-  pageSize: number;
-}
+export type { PageQuery as ListQuery } from "./paging";
 
 export async function insertCalibration(db: Db, row: Omit<DbCalibrationRow, "id">): Promise<number> {
   const [r] = await db("calibrations").insert(row).returning("id");
@@ -22,18 +17,15 @@ export async function getCalibrationRow(db: Db, labId: number, id: number): Prom
 
 const CALIBRATION_SORTS: Record<string, string> = { created_at: "c.created_at", name: "c.name", analyte: "c.analyte", slope: "c.slope", lod: "c.lod" };
 
-export async function listCalibrationRows(db: Db, labId: number, q: ListQuery) {
+export async function listCalibrationRows(db: Db, labId: number, q: PageQuery) {
   const base = db("calibrations as c").where("c.lab_id", labId);
   if (q.q) base.andWhere((w) => w.whereLike("c.name", `%${q.q}%`).orWhereLike("c.analyte", `%${q.q}%`));
-  const [{ count }] = (await base.clone().count({ count: "*" })) as [{ count: number | string }];
-  const rows = await base
-    .leftJoin("users as u", "u.id", "c.author_id")
-    .orderBy(CALIBRATION_SORTS[q.sort] ?? "c.created_at", q.dir)
-    .orderBy("c.id", q.dir)
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize)
-    .select("c.id", "c.name", "c.analyte", "c.concentration_unit", "c.wavelength_nm", "c.slope", "c.lod", "c.loq", "c.results", "c.created_at", "u.display_name as author_name");
-  return { rows, total: Number(count) };
+  return pageOf<Pick<DbCalibrationRow, "id" | "name" | "analyte" | "concentration_unit" | "wavelength_nm" | "slope" | "lod" | "loq" | "results" | "created_at"> & { author_name: string | null }>(
+    base,
+    q,
+    { column: CALIBRATION_SORTS[q.sort] ?? "c.created_at", tie: "c.id" },
+    (b) => b.leftJoin("users as u", "u.id", "c.author_id").select("c.id", "c.name", "c.analyte", "c.concentration_unit", "c.wavelength_nm", "c.slope", "c.lod", "c.loq", "c.results", "c.created_at", "u.display_name as author_name"),
+  );
 }
 
 export async function insertMethodVersion(db: Db, row: Omit<DbMethodRow, "id">): Promise<number> {
@@ -62,19 +54,16 @@ export async function listMethodVersionRows(db: Db, labId: number, recordId: num
 
 const METHOD_SORTS: Record<string, string> = { created_at: "m.created_at", name: "m.name", analyte: "m.analyte", version: "m.version" };
 
-export async function listLatestMethodRows(db: Db, labId: number, q: ListQuery) {
+export async function listLatestMethodRows(db: Db, labId: number, q: PageQuery) {
   const latest = db("methods").where("lab_id", labId).groupBy("record_id").max({ id: "id" });
   const base = db("methods as m").whereIn("m.id", latest);
   if (q.q) base.andWhere((w) => w.whereLike("m.name", `%${q.q}%`).orWhereLike("m.analyte", `%${q.q}%`));
-  const [{ count }] = (await base.clone().count({ count: "*" })) as [{ count: number | string }];
-  const rows = await base
-    .leftJoin("users as u", "u.id", "m.author_id")
-    .orderBy(METHOD_SORTS[q.sort] ?? "m.created_at", q.dir)
-    .orderBy("m.id", q.dir)
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize)
-    .select("m.id", "m.record_id", "m.version", "m.name", "m.analyte", "m.definition", "m.created_at", "u.display_name as author_name");
-  return { rows, total: Number(count) };
+  return pageOf<Pick<DbMethodRow, "id" | "record_id" | "version" | "name" | "analyte" | "definition" | "created_at"> & { author_name: string | null }>(
+    base,
+    q,
+    { column: METHOD_SORTS[q.sort] ?? "m.created_at", tie: "m.id" },
+    (b) => b.leftJoin("users as u", "u.id", "m.author_id").select("m.id", "m.record_id", "m.version", "m.name", "m.analyte", "m.definition", "m.created_at", "u.display_name as author_name"),
+  );
 }
 
 /** Every method record's newest version, for pickers (name and id only). */

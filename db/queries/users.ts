@@ -1,5 +1,6 @@
 // Users and their lab memberships.
 import type { Db } from "@/db";
+import { pageOf, type PageQuery } from "./paging";
 import type { DbMembershipRow, DbUserRow } from "@/db/tables";
 import type { Role } from "@/lib/permissions/roles";
 
@@ -90,17 +91,12 @@ export async function listLabMembers(db: Db, labId: number): Promise<LabMemberRo
 const MEMBER_SORTS: Record<string, string> = { name: "u.display_name", email: "u.email", role: "m.role", since: "m.created_at" };
 
 /** One page of a lab's members, sorted and filtered in SQL. */
-export async function pageLabMembers(db: Db, labId: number, q: { q?: string; sort: string; dir: "asc" | "desc"; page: number; pageSize: number }) {
+export async function pageLabMembers(db: Db, labId: number, q: PageQuery) {
   const base = db("memberships as m").join("users as u", "u.id", "m.user_id").where("m.lab_id", labId);
   if (q.q) base.andWhere((w) => w.whereLike("u.display_name", `%${q.q}%`).orWhereLike("u.email", `%${q.q}%`).orWhereLike("m.role", `%${q.q}%`));
-  const [{ count }] = (await base.clone().count({ count: "*" })) as [{ count: number | string }];
-  const rows: Array<LabMemberRow & { since: string }> = await base
-    .orderBy(MEMBER_SORTS[q.sort] ?? "u.display_name", q.dir)
-    .orderBy("u.id")
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize)
-    .select("u.id as user_id", "u.email", "u.display_name", "m.role", "u.disabled", "u.locked_until", "u.failed_sign_ins", "m.created_at as since");
-  return { rows, total: Number(count) };
+  return pageOf<LabMemberRow & { since: string }>(base, q, { column: MEMBER_SORTS[q.sort] ?? "u.display_name", tie: "u.id" }, (b) =>
+    b.select("u.id as user_id", "u.email", "u.display_name", "m.role", "u.disabled", "u.locked_until", "u.failed_sign_ins", "m.created_at as since"),
+  );
 }
 
 export async function setUserDisabled(db: Db, userId: number, disabled: boolean): Promise<void> {
