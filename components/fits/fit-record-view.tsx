@@ -10,7 +10,7 @@ import { getDb } from "@/db";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { listAuditTrail } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
-import { fitVersions, getFitRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
+import { getFitRecord, versionsOfRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { can } from "@/lib/permissions";
 
@@ -27,7 +27,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
   });
-  const versions = await fitVersions(db, labId, rec.id);
+  const versions = await versionsOfRecord(db, labId, rec.record_id!);
   const audit = outside ? [] : await listAuditTrail(db, labId, { limit: 200, objectType: "fit", objectId: String(rec.record_id) });
   const newest = versions.at(-1)!;
   const k = rec.primary.k;

@@ -35,6 +35,11 @@ export async function listAuditRows(
   return q;
 }
 
+/** Every event of one object, oldest first (a record's report prints them all). */
+export async function auditRowsOfObject(db: Db, labId: number, objectType: string, objectId: string): Promise<DbAuditEventRow[]> {
+  return db("audit_events").where({ lab_id: labId, object_type: objectType, object_id: objectId }).orderBy("id");
+}
+
 /** Every row in order, for verifying the hash chain. */
 export async function allAuditRowsInOrder(db: Db): Promise<DbAuditEventRow[]> {
   return db("audit_events").orderBy("id", "asc");

@@ -155,7 +155,12 @@ export async function getFitRecord(db: Knex, labId: number, id: number): Promise
 export async function fitVersions(db: Knex, labId: number, id: number) {
   const row = await getFit(db, labId, id);
   if (!row) throw new AppError({ code: "not_found", message: `There is no fit ${id} in this lab.` });
-  const versions = await listVersions(db, labId, row.record_id!);
+  return versionsOfRecord(db, labId, row.record_id!);
+}
+
+/** Every version of a fit record, each with what changed from the one before (for callers that hold the record). */
+export async function versionsOfRecord(db: Knex, labId: number, recordId: number) {
+  const versions = await listVersions(db, labId, recordId);
   return versions.map((v, i) => ({
     id: v.id,
     version: v.version,

@@ -3,7 +3,8 @@
 // pdfkit's font subsetter (fontkit) throws "Offset is outside the bounds of the DataView" on the app's woff2 files.
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
-import { computeFit, fitVersions, getFitRecord } from "@/lib/fits";
+import { auditRowsOfObject } from "@/db/queries/audit";
+import { computeFit, getFitRecord, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { reviewStatus } from "@/lib/reviews";
 import { getRunDetail } from "@/lib/runs";
@@ -21,9 +22,9 @@ export function printable(s: string): string {
 export async function fitReportPdf(db: Knex, labId: number, labName: string, id: number): Promise<{ name: string; bytes: Buffer }> {
   const rec = await getFitRecord(db, labId, id);
   const run = await getRunDetail(db, labId, rec.run.id);
-  const versions = await fitVersions(db, labId, id);
+  const versions = await versionsOfRecord(db, labId, rec.record_id!);
   const review = await reviewStatus(db, labId, id);
-  const audit = await db("audit_events").where({ lab_id: labId, object_type: "fit", object_id: String(rec.record_id) }).orderBy("id");
+  const audit = await auditRowsOfObject(db, labId, "fit", String(rec.record_id));
   const { t, y, outcome } = await computeFit(db, labId, rec.run.id, rec.series.id, rec.options);
 
   const doc = new PDFDocument({ size: "A4", margin: 48, info: { Title: `${rec.title} v${rec.version}`, Author: "Halflight", Subject: `content hash ${rec.content_hash}` } });
