@@ -13,6 +13,7 @@ import { Dialog } from "@/components/ui/dialog";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
+import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
 import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { fetcher } from "@/lib/http/fetcher";
 import { firstOrderRate, localTangentRate } from "@/lib/kinetics/quantities";
@@ -21,6 +22,8 @@ import { convertReading, fitSeriesWithOptions, type Conversion, type SeriesFitOp
 import type { FitOptions } from "@/lib/schemas/fits";
 import type { MethodForRun } from "@/lib/schemas/methods";
 import { useSeriesFit } from "./use-fit";
+
+const num = parseDecimalField;
 
 const ALL_MODELS = [
   { id: "linearized", label: "Linearized first order" },
@@ -110,21 +113,14 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const [saveReason, setSaveReason] = useState("");
   const [saving, setSaving] = useState(false);
   const [formula, setFormula] = useState<string>(o?.formula ?? m?.formula ?? "");
-  const [startsText, setStartsText] = useState<string>(Object.entries(o?.starts ?? m?.starts ?? {}).map(([k, v]) => `${k}=${v}`).join(", "));
+  const [startsText, setStartsText] = useState<string>(formatStartValues(o?.starts ?? m?.starts ?? {}));
   const [selected, setSelected] = useState<number[]>([]);
   /** The points waiting for a reason before they are excluded (one clicked, or a box selection). */
   const [pending, setPending] = useState<number[] | null>(null);
   const [rateAt, setRateAt] = useState<string>("");
 
-  const num = (s: string) => (s.trim() === "" ? null : Number(s.replace(",", ".")));
-  const starts = useMemo(() => {
-    const out: Record<string, number> = {};
-    for (const part of startsText.split(/[,;]/)) {
-      const m = part.match(/^\s*([A-Za-z_]\w*)\s*=\s*([-+0-9.eE]+)\s*$/);
-      if (m && Number.isFinite(Number(m[2]))) out[m[1]!] = Number(m[2]);
-    }
-    return out;
-  }, [startsText]);
+  // Only finite starts reach the engine; a half-typed value is simply not used yet.
+  const starts = useMemo(() => Object.fromEntries(Object.entries(parseStartValues(startsText)).filter(([, v]) => Number.isFinite(v))), [startsText]);
   const options: FitOptions = useMemo(
     () => ({
       models: models as FitOptions["models"],

@@ -10,6 +10,7 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
+import { parseDecimalField } from "@/lib/format/input";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { calibrate, inversePredict, type Calibration, type CalibrationWeighting, type SigmaSource } from "@/lib/kinetics/quantities";
 
@@ -29,7 +30,7 @@ interface Saved {
   options: { through_origin: boolean; weighting: CalibrationWeighting; sigma: SigmaSource; blank_sd: number | null };
 }
 
-const toNumber = (s: string) => (s.trim() === "" ? NaN : Number(s.trim().replace(",", ".")));
+const toNumber = (s: string) => parseDecimalField(s) ?? NaN;
 
 /** Rows of concentration, absorbance[, replicate] from pasted spreadsheet cells or a CSV export; header lines skipped. */
 export function readStandards(text: string): { rows: StandardRow[]; problems: string[] } {

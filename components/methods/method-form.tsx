@@ -6,8 +6,11 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
+import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
 import type { Criterion } from "@/lib/kinetics/criteria";
 import type { MethodDefinition } from "@/lib/schemas/methods";
+
+const num = parseDecimalField;
 
 const MODELS = [
   { id: "first-order", label: "Nonlinear first order" },
@@ -53,7 +56,7 @@ export function MethodForm({
   const [weighting, setWeighting] = useState<"none" | "log">(initial?.weighting ?? "none");
   const [from, setFrom] = useState(initial?.window.from_s != null ? String(initial.window.from_s) : "");
   const [to, setTo] = useState(initial?.window.to_s != null ? String(initial.window.to_s) : "");
-  const [customs, setCustoms] = useState(initial?.custom_models.map((m) => ({ name: m.name, formula: m.formula, starts: Object.entries(m.starts).map(([k, v]) => `${k}=${v}`).join(", ") })) ?? []);
+  const [customs, setCustoms] = useState(initial?.custom_models.map((m) => ({ name: m.name, formula: m.formula, starts: formatStartValues(m.starts) })) ?? []);
   const [criteria, setCriteria] = useState<Record<Kind, { on: boolean; value: string; min: string; max: string }>>(() => {
     const out = {} as Record<Kind, { on: boolean; value: string; min: string; max: string }>;
     for (const c of CRITERIA) {
@@ -72,7 +75,6 @@ export function MethodForm({
   const [reason, setReason] = useState("");
   const [saving, setSaving] = useState(false);
   const [errors, setErrors] = useState<string[]>([]);
-  const num = (s: string) => (s.trim() === "" ? null : Number(s.replace(",", ".")));
 
   function definition() {
     return {
@@ -88,13 +90,7 @@ export function MethodForm({
       custom_models: customs.map((c) => ({
         name: c.name,
         formula: c.formula,
-        starts: Object.fromEntries(
-          c.starts
-            .split(/[,;]/)
-            .map((p) => p.match(/^\s*([A-Za-z_]\w*)\s*=\s*([-+0-9.eE]+)\s*$/))
-            .filter((m): m is RegExpMatchArray => m !== null)
-            .map((m) => [m[1]!, Number(m[2])]),
-        ),
+        starts: parseStartValues(c.starts),
       })),
       criteria: CRITERIA.filter((c) => criteria[c.kind].on).map((c) => {
         const s = criteria[c.kind];

@@ -9,9 +9,12 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Input, Select } from "@/components/ui/field";
 import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
+import { parseDecimalField } from "@/lib/format/input";
 import { formatBytes } from "@/lib/format/number";
 import { uploadWithProgress } from "@/lib/http/upload";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
+
+const numOrNull = parseDecimalField;
 
 type Status = "uploading" | "previewed" | "refused" | "saving" | "saved";
 interface Item {
@@ -146,7 +149,6 @@ function FileCard({ item, methods, onMapping, onSave, onTimeColumn }: { item: It
   const p = item.preview;
   const m = item.mapping;
   const setRun = (patch: Partial<RunMapping["run"]>) => onMapping({ ...m, run: { ...m.run, ...patch } });
-  const numOrNull = (v: string) => (v.trim() === "" ? null : Number(v.replace(",", ".")));
   const base = solutionColour(m.run.wavelength_nm ?? null).hex;
   return (
     <article className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label={`File ${item.file.name}`} data-testid="upload-card">

@@ -27,3 +27,19 @@ describe("formatting", () => {
     expect(solutionColour(340).seen).toBeNull();
   });
 });
+
+describe("number fields as typed (common practice: a decimal comma is accepted, an empty field is not given)", () => {
+  it("reads decimals with a point or a comma, empty as null, and leaves the rest NaN to show as wrong", async () => {
+    const { parseDecimalField } = await import("@/lib/format/input");
+    expect(parseDecimalField("0,25")).toBe(0.25);
+    expect(parseDecimalField(" 1.5e-3 ")).toBe(0.0015);
+    expect(parseDecimalField("  ")).toBeNull();
+    expect(parseDecimalField("1x")).toBeNaN();
+  });
+  it("reads and writes start values as name=number pairs", async () => {
+    const { formatStartValues, parseStartValues } = await import("@/lib/format/input");
+    expect(parseStartValues("k=0.002, b1=1; junk, a = -2e-1")).toEqual({ k: 0.002, b1: 1, a: -0.2 });
+    expect(parseStartValues("k=1e")).toEqual({ k: NaN });
+    expect(formatStartValues({ k: 0.002, b1: 1 })).toBe("k=0.002, b1=1");
+  });
+});
