@@ -1,14 +1,15 @@
 // Lab membership administration.
 import type { Db } from "@/db";
-import { clearFailedSignIns, findUserById, listLabMembers, pageLabMembers, listMembershipsOfUser, setMembershipRole, setUserDisabled } from "@/db/queries/users";
+import type { PageQuery } from "@/db/queries/paging";
+import { clearFailedSignIns, findUserById, listLabMembers, listMembershipsOfUser, pageLabMembers, setMembershipRole, setUserDisabled, type LabMemberRow } from "@/db/queries/users";
 import type { Knex } from "knex";
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
 import type { Member, MemberAction } from "@/lib/schemas/members";
 
-export async function listMembers(db: Db, labId: number): Promise<Member[]> {
-  return (await listLabMembers(db, labId)).map((r) => ({
+function memberOf(r: LabMemberRow): Member {
+  return {
     userId: r.user_id,
     email: r.email,
     name: r.display_name,
@@ -16,16 +17,17 @@ export async function listMembers(db: Db, labId: number): Promise<Member[]> {
     disabled: Boolean(r.disabled),
     lockedUntil: r.locked_until,
     failedSignIns: r.failed_sign_ins,
-  }));
+  };
+}
+
+export async function listMembers(db: Db, labId: number): Promise<Member[]> {
+  return (await listLabMembers(db, labId)).map(memberOf);
 }
 
 /** One page of members for the admin list (sorted, filtered and paged on the server). */
-export async function pageMembers(db: Db, labId: number, q: { q?: string; sort: string; dir: "asc" | "desc"; page: number; pageSize: number }) {
+export async function pageMembers(db: Db, labId: number, q: PageQuery) {
   const { rows, total } = await pageLabMembers(db, labId, q);
-  return {
-    rows: rows.map((r) => ({ userId: r.user_id, email: r.email, name: r.display_name, role: r.role, disabled: Boolean(r.disabled), lockedUntil: r.locked_until, failedSignIns: r.failed_sign_ins, since: r.since })),
-    total,
-  };
+  return { rows: rows.map((r) => ({ ...memberOf(r), since: r.since })), total };
 }
 
 /** Unlock, deactivate (never delete: records stay attributed), reactivate, or change a role; each audited with a reason. */
