@@ -88,9 +88,8 @@ export async function openShareLinkOutside(db: Knex, token: string, now = new Da
   if (!l) throw new AppError({ code: "not_found", message: "This share link does not exist." });
   if (!(await getLabSettings(db, l.lab_id)).outside_links) throw new AppError({ code: "unauthorized", message: "Sign in to open this link: its lab shares records with its members only." });
   refuseIfOver(l, now);
-  await db.transaction(async (trx) => {
-    await recordAudit(trx, { labId: l.lab_id, actorUserId: null, actorLabel: `outside reviewer via link ${l.id}${l.recipient ? ` (${l.recipient})` : ""}`, action: "share.viewed_outside", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
-  });
+  // One row, and recordAudit appends it in its own transaction.
+  await recordAudit(db, { labId: l.lab_id, actorUserId: null, actorLabel: `outside reviewer via link ${l.id}${l.recipient ? ` (${l.recipient})` : ""}`, action: "share.viewed_outside", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
   const lab = await findLabById(db, l.lab_id);
   return { fit_id: l.object_id, lab_id: l.lab_id, lab_name: lab?.name ?? "", expires_at: l.expires_at, recipient: l.recipient };
 }
