@@ -27,9 +27,11 @@ export function checkSize(fileName: string, size: number, maxBytes: number = ING
   if (size === 0) throw new AppError({ code: "unprocessable", message: `${fileName}: The file is empty.` });
 }
 
-/** Parses and checks an export; refused input becomes a 422 naming the file and the line. */
-export function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): ParsedExport {
-  checkSize(fileName, bytes.length);
+/**
+ * Parses and checks an export; refused input becomes a 422 naming the file and the line. Its size has been checked
+ * against the lab's limit (never above the server's) by the caller, before any other work.
+ */
+function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): ParsedExport {
   const parsed = parseExport(bytes, fileName, mapping.parser, { timeColumn: mapping.timeColumn });
   if (parsed instanceof ParseError) throw refuse(fileName, parsed);
   if (parsed.series.length > INGEST_LIMITS.maxChannels)
