@@ -16,7 +16,7 @@ import { changeLabSettings, getLabSettings, passwordProblems } from "@/lib/admin
 import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { ingestExport } from "@/lib/ingest";
-import { freshDb } from "./../helpers/db";
+import { freshDb, signInAs } from "./../helpers/db";
 import { testMailSink } from "./../helpers/mail";
 
 let db: Knex;
@@ -36,8 +36,7 @@ beforeAll(async () => {
   db = await freshDb();
   setDb(db);
   await seedDemoWhenEmpty(db);
-  const a = DEMO_USERS.find((u) => u.role === "admin")!;
-  admin = await signInWithPassword(db, a.email, a.password);
+  admin = await signInAs(db, "admin");
   // A second lab with its own administrator, for the scoping checks.
   const lab = await insertLab(db, { slug: "fennwick", name: "Fennwick Water Lab", createdAt: new Date().toISOString() });
   const u = await insertUser(db, { email: "oda.brenn@fennwick.example", displayName: "Oda Brenn", passwordHash: await hashPassword("fennwick-admin-pass"), createdAt: new Date().toISOString() });

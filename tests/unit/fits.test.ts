@@ -5,13 +5,13 @@ import type { Knex } from "knex";
 import { setDb } from "@/db";
 import { insertLab } from "@/db/queries/labs";
 import { insertMembership, insertUser } from "@/db/queries/users";
-import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
+import { seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { hashPassword } from "@/lib/auth/password";
 import { csvCell, describeChanges } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { runCli } from "@/lib/cli/main";
-import { freshDb } from "./../helpers/db";
+import { freshDb, signInAs } from "./../helpers/db";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
 vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
@@ -36,8 +36,7 @@ beforeAll(async () => {
   db = await freshDb();
   setDb(db);
   await seedDemoWhenEmpty(db);
-  const u = DEMO_USERS.find((x) => x.role === "analyst")!;
-  analyst = await signInWithPassword(db, u.email, u.password);
+  analyst = await signInAs(db, "analyst");
   const r = await ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes: new Uint8Array(fs.readFileSync(CV)), fileName: "crystal-violet-590nm.csv" });
   runId = r.run_id;
   seriesId = r.series[0]!.id;

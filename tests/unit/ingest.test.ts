@@ -5,12 +5,12 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vites
 import type { Knex } from "knex";
 import { setDb } from "@/db";
 import { countIngestRows } from "@/db/queries/runs";
-import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
-import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
+import { seedDemoWhenEmpty } from "@/db/seeds/demo";
+import type { SignedInUser } from "@/lib/auth/sign-in";
 import { verifyAuditChain } from "@/lib/audit";
 import { ingestExport, INGEST_LIMITS, sha256Hex } from "@/lib/ingest";
 import { readSeries } from "@/lib/runs";
-import { freshDb } from "./../helpers/db";
+import { freshDb, signInAs } from "./../helpers/db";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
 vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
@@ -39,8 +39,7 @@ beforeAll(async () => {
   db = await freshDb();
   setDb(db);
   await seedDemoWhenEmpty(db);
-  const u = DEMO_USERS.find((x) => x.role === "analyst")!;
-  analyst = await signInWithPassword(db, u.email, u.password);
+  analyst = await signInAs(db, "analyst");
 });
 beforeEach(() => {
   session.current = analyst;
@@ -185,8 +184,7 @@ describe("refused input over HTTP: a clear message, the line, a 4xx, nothing wri
   });
 
   it("a reviewer may read runs but not upload", async () => {
-    const u = DEMO_USERS.find((x) => x.role === "reviewer")!;
-    session.current = await signInWithPassword(db, u.email, u.password);
+    session.current = await signInAs(db, "reviewer");
     const r = await post("uploads", form(`${FIX}/cv-iso.csv`));
     expect(r.status).toBe(403);
   });

@@ -4,7 +4,7 @@ import type { Knex } from "knex";
 import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { changeMember } from "@/lib/admin/members";
 import { signInWithPassword, WRONG_CREDENTIALS, type SignedInUser } from "@/lib/auth/sign-in";
-import { freshDb } from "./../helpers/db";
+import { freshDb, signInAs } from "./../helpers/db";
 
 let db: Knex;
 let admin: SignedInUser;
@@ -14,8 +14,7 @@ let analystId: number;
 beforeAll(async () => {
   db = await freshDb();
   await seedDemoWhenEmpty(db);
-  const a = DEMO_USERS.find((u) => u.role === "admin")!;
-  admin = await signInWithPassword(db, a.email, a.password);
+  admin = await signInAs(db, "admin");
   analystId = (await db("users").where({ email: analyst.email }).first())!.id;
 });
 afterAll(() => db.destroy());

@@ -4,13 +4,13 @@
 import fs from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
-import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
-import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
+import { seedDemoWhenEmpty } from "@/db/seeds/demo";
+import type { SignedInUser } from "@/lib/auth/sign-in";
 import { getFitRecord, saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { assignRunMethod, calibrationConversion, checkCustomModel, createCalibration, createMethod, getCalibration, getMethod, listMethods, newMethodVersion } from "@/lib/methods";
 import { createCalibrationSchema, methodDefinitionSchema } from "@/lib/schemas/methods";
-import { freshDb } from "./../helpers/db";
+import { freshDb, signInAs } from "./../helpers/db";
 
 let db: Knex;
 let dev: SignedInUser;
@@ -20,9 +20,8 @@ const HARVEY = [0, 0.1, 0.2, 0.3, 0.4, 0.5].map((c, i) => ({ concentration: c, a
 beforeAll(async () => {
   db = await freshDb();
   await seedDemoWhenEmpty(db);
-  const u = (role: string) => DEMO_USERS.find((x) => x.role === role)!;
-  dev = await signInWithPassword(db, u("method_developer").email, u("method_developer").password);
-  analyst = await signInWithPassword(db, u("analyst").email, u("analyst").password);
+  dev = await signInAs(db, "method_developer");
+  analyst = await signInAs(db, "analyst");
 });
 afterAll(() => db.destroy());
 

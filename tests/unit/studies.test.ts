@@ -5,13 +5,13 @@ import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
-import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
-import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
+import { seedDemoWhenEmpty } from "@/db/seeds/demo";
+import type { SignedInUser } from "@/lib/auth/sign-in";
 import { runCli } from "@/lib/cli/main";
 import { formatWithUncertainty } from "@/lib/format/number";
 import { fitLine } from "@/lib/kinetics";
 import { changeStudy, createStudy, getStudyRecord, studyCsv } from "@/lib/studies";
-import { freshDb } from "./../helpers/db";
+import { freshDb, signInAs } from "./../helpers/db";
 
 let db: Knex;
 let analyst: SignedInUser;
@@ -20,8 +20,7 @@ let fitIds: number[];
 beforeAll(async () => {
   db = await freshDb();
   await seedDemoWhenEmpty(db, new Date(), { runs: true });
-  const u = DEMO_USERS.find((x) => x.role === "analyst")!;
-  analyst = await signInWithPassword(db, u.email, u.password);
+  analyst = await signInAs(db, "analyst");
   // The demo's four temperatures (the drifting repeat left out).
   fitIds = (await db("fits as f").join("runs as r", "r.id", "f.run_id").whereNot("r.name", "like", "%drift%").orderBy("r.temperature_c").select("f.id")).map((r) => r.id);
 });
