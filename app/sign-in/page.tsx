@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { Mark } from "@/components/shell/mark";
+import { safeNext } from "@/lib/auth/session-cookie";
 
 export const metadata: Metadata = { title: "Sign in" };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
   const { next } = await searchParams;
-  // Only same-site paths, so the form cannot be used to send people elsewhere.
-  const target = next && next.startsWith("/") && !next.startsWith("//") ? next : "/";
+  const target = safeNext(next);
   return (
     <main className="grid min-h-screen place-items-center px-4">
       <div className="w-full max-w-sm">

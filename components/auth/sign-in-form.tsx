@@ -1,43 +1,22 @@
 "use client";
-import { signIn } from "next-auth/react";
-import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+// Posts to a server action (method POST, never GET): works before the scripts load and without them.
+import { useActionState } from "react";
+import { signInAction, type PasswordFormState } from "@/app/sign-in/actions";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 
+const START: PasswordFormState = { errors: [], email: "" };
+
 export function SignInForm({ next }: { next: string }) {
-  const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  async function onSubmit(e: FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const form = new FormData(e.currentTarget);
-    const email = String(form.get("email") ?? "").trim();
-    const password = String(form.get("password") ?? "");
-    if (!email || !password) {
-      setError("Enter your e-mail and your password.");
-      return;
-    }
-    setBusy(true);
-    setError(null);
-    const res = await signIn("credentials", { email, password, redirect: false });
-    setBusy(false);
-    if (!res || res.error) {
-      setError(res?.error && res.error !== "CredentialsSignin" ? res.error : "The sign-in did not go through. Try again.");
-      return;
-    }
-    router.replace(next);
-    router.refresh();
-  }
-
+  const [state, action, busy] = useActionState(signInAction, START);
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-4">
-      <Input label="E-mail" name="email" type="email" autoComplete="username" required />
+    <form action={action} className="space-y-4">
+      <input type="hidden" name="next" value={next} />
+      <Input label="E-mail" name="email" type="email" autoComplete="username" defaultValue={state.email} key={state.email} required />
       <Input label="Password" name="password" type="password" autoComplete="current-password" required />
-      {error && (
+      {state.errors.length > 0 && (
         <p role="alert" data-testid="sign-in-error" className="rounded-cell bg-fault-100 px-3 py-2 text-sm text-fault-700">
-          {error}
+          {state.errors.join(" ")}
         </p>
       )}
       <Button type="submit" className="w-full" disabled={busy}>

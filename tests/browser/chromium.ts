@@ -6,12 +6,13 @@ import { chromium, type BrowserContext, type Page } from "playwright-core";
 
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 
-export async function openBrowser(): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+export async function openBrowser(opts: { javaScriptEnabled?: boolean } = {}): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
   const userDataDir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-chromium-"));
   const context = await chromium.launchPersistentContext(userDataDir, {
     executablePath: CHROMIUM,
     headless: true,
     viewport: { width: 1280, height: 800 },
+    javaScriptEnabled: opts.javaScriptEnabled ?? true,
     args: [
       "--no-sandbox",
       "--disable-gpu",

@@ -23,6 +23,7 @@ declare module "vitest" {
     lockoutUser: { email: string; password: string };
     artifacts: string;
     mailDir: string;
+    serverLog: string;
   }
 }
 
@@ -83,7 +84,7 @@ export async function setup(project: TestProject): Promise<void> {
   const port = await freePort();
   const baseURL = `http://127.0.0.1:${port}`;
   server = spawn(process.execPath, [path.resolve("node_modules/next/dist/bin/next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
-    stdio: ["ignore", "inherit", "inherit"],
+    stdio: ["ignore", "pipe", "pipe"],
     env: {
       ...process.env,
       DATABASE_FILE: dbFile,
@@ -94,6 +95,11 @@ export async function setup(project: TestProject): Promise<void> {
       MAIL_SINK_DIR: mailDir,
     },
   });
+  // The server's output goes to the console and to a file, so a test can read what the server logged.
+  const serverLog = path.join(dir, "server.log");
+  const log = fs.createWriteStream(serverLog);
+  server.stdout!.on("data", (b: Buffer) => (process.stdout.write(b), log.write(b)));
+  server.stderr!.on("data", (b: Buffer) => (process.stderr.write(b), log.write(b)));
   await waitForServer(`${baseURL}/sign-in`, server, 60_000);
 
   const artifacts = path.resolve("tests/.artifacts");
@@ -102,6 +108,7 @@ export async function setup(project: TestProject): Promise<void> {
   project.provide("lockoutUser", LOCKOUT_USER);
   project.provide("artifacts", artifacts);
   project.provide("mailDir", mailDir);
+  project.provide("serverLog", serverLog);
 }
 
 export async function teardown(): Promise<void> {

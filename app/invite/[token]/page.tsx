@@ -40,7 +40,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
           <p className="mb-5 mt-1 text-sm text-ink-700">
             You are invited to {opened.lab.name} as {ROLE_LABELS[inv.role].toLowerCase()}. Choose a password for {inv.email}.
           </p>
-          <SetPasswordForm token={token} email={inv.email} minLength={opened.password_min_length} />
+          <SetPasswordForm token={token} minLength={opened.password_min_length} />
         </div>
         <p className="mt-6 text-xs text-ink-500">The link works once and expires {inv.expires_at.slice(0, 16).replace("T", " ")} UTC. Your account is personal: never share a sign-in.</p>
       </div>
