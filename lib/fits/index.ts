@@ -6,6 +6,7 @@ import { getFit, insertFitVersion, latestVersion, listLatestFits, listVersions }
 import { recordAudit } from "@/lib/audit";
 import { canonicalJson } from "./canonical";
 import { AppError } from "@/lib/errors";
+import { can } from "@/lib/permissions";
 import { getRun } from "@/db/queries/runs";
 import { ENGINE_VERSION, evaluateCriteria, fitSeriesWithOptions, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
 import { calibrationConversion, getCalibration, methodForRun } from "@/lib/methods";
@@ -42,6 +43,14 @@ export async function computeFit(db: Knex, labId: number, runId: number, seriesI
   return { row, t, y, outcome, dataSha };
 }
 
+/** Own formulas are the method developer's permission; anyone who may fit can use a formula the run's method defines. */
+export function assertFormulaAllowed(user: SignedInUser, options: FitOptions, methodModels: ReadonlyArray<{ formula: string }>): void {
+  const formula = options.formula?.trim();
+  if (!formula || !options.models.includes("formula") || can({ userId: user.userId, role: user.role }, "model:custom")) return;
+  if (methodModels.some((m) => m.formula.trim() === formula)) return;
+  throw new AppError({ code: "forbidden", message: "Fitting an own formula is open to method developers; use a formula from the run's method, or ask a method developer to add yours to it." });
+}
+
 export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput, now = new Date()) {
   let previous = null;
   if (input.previousId) {
@@ -53,12 +62,13 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
     if (!input.reason) throw new AppError({ code: "unprocessable", message: "Say why this version changes the record (a reason is required for every change).", issues: [{ path: "reason", message: "Required for a new version." }] });
     previous = p;
   }
+  const run = await getRun(db, user.labId, input.runId);
+  const method = await methodForRun(db, user.labId, run?.method_record_id ?? null);
+  assertFormulaAllowed(user, input.options, method?.definition.custom_models ?? []);
   const { outcome, dataSha } = await computeFit(db, user.labId, input.runId, input.seriesId, input.options);
   if ((input.options.exclusions ?? []).some((e) => e.index >= outcome.included.length))
     throw new AppError({ code: "unprocessable", message: "An excluded point is beyond the end of the series." });
   const results = storedResults(outcome);
-  const run = await getRun(db, user.labId, input.runId);
-  const method = await methodForRun(db, user.labId, run?.method_record_id ?? null);
   const conv = input.options.conversion;
   if (conv?.kind === "calibration") {
     const cal = await getCalibration(db, user.labId, conv.calibrationId);

@@ -1,8 +1,33 @@
 // User formulas in standard math notation (mathjs): y as an expression of t; every other free name is a parameter.
-// The Jacobian comes from mathjs's symbolic derivatives, compiled once.
-import { compile, derivative, parse, type EvalFunction, type MathNode } from "mathjs";
+// Hostile input is bounded before any work: length, node count and depth are checked on the parsed tree, and only an
+// allow-list of node kinds, operators and functions passes (no evaluate, import, createUnit, ranges, matrices,
+// assignments or property access). Derivatives are symbolic without mathjs's simplification step (whose cost grows
+// exponentially with the formula), for small trees only; larger trees and points where a symbolic derivative is not
+// finite (0·log 0 at t = 0) use central differences.
+import { derivative, parse, simplify, simplifyCore, type EvalFunction, type MathNode } from "mathjs";
 
-const KNOWN_CONSTANTS = new Set(["pi", "e", "E", "PI", "Infinity", "NaN"]);
+/** Longest formula read at all. */
+export const MAX_FORMULA_LENGTH = 2000;
+/** Largest parsed tree (nodes) and nesting depth accepted. */
+export const MAX_FORMULA_NODES = 600;
+export const MAX_FORMULA_DEPTH = 40;
+/** Trees up to this size get symbolic derivatives; larger ones use central differences. */
+const SYMBOLIC_DERIVATIVE_NODES = 120;
+/** mathjs's full simplification (rule rewriting, exponential in the length of a sum) only on derivatives this small,
+ * with sums and products of at most SIMPLIFY_CHAIN operands, and only while the formula's simplification budget lasts;
+ * the rest keep the one-pass simplifyCore form. Simplified forms round less (NIST Bennett5: LRE 8.5 against 6.9). */
+const SIMPLIFY_NODES = 60;
+const SIMPLIFY_CHAIN = 6;
+const SIMPLIFY_BUDGET_MS = 60;
+const MAX_PARAMETERS = 12;
+
+const KNOWN_CONSTANTS = new Set(["pi", "e", "E", "PI"]);
+/** Functions a kinetic formula may use; each has a derivative in mathjs. */
+export const FORMULA_FUNCTIONS = ["exp", "log", "log10", "sqrt", "abs", "sin", "cos", "tan", "sinh", "cosh", "tanh", "asin", "acos", "atan"] as const;
+const FUNCTIONS = new Set<string>(FORMULA_FUNCTIONS);
+const OPERATORS = new Set(["add", "subtract", "multiply", "divide", "pow", "unaryMinus", "unaryPlus"]);
+const NODE_KINDS = new Set(["ConstantNode", "SymbolNode", "OperatorNode", "ParenthesisNode", "FunctionNode"]);
+const NAME = /^[A-Za-z][A-Za-z0-9_]{0,31}$/;
 
 export interface CompiledFormula {
   expression: string;
@@ -15,11 +40,28 @@ export class FormulaError extends Error {
   override name = "FormulaError";
 }
 
-export function compileFormula(source: string, variable = "t"): CompiledFormula {
+interface Checked {
+  text: string;
+  node: MathNode;
+  params: string[];
+  size: number;
+}
+
+/** Reads and checks a formula without compiling it: every refusal names what was refused. */
+export function checkFormula(source: string, variable = "t"): Checked {
+  if (source.length > MAX_FORMULA_LENGTH) throw new FormulaError(`The formula has ${source.length} characters; at most ${MAX_FORMULA_LENGTH} are read.`);
   let text = source.trim().replace(/\*\*/g, "^");
   // Accept "y = ..." as written in papers; the left side is ignored.
   const eq = text.match(/^\s*[A-Za-z_]\w*\s*=(?!=)(.*)$/);
   if (eq) text = eq[1]!.trim();
+  if (!text) throw new FormulaError("The formula is empty.");
+  // Parenthesis depth bounds the parser's own recursion before it runs.
+  let depth = 0;
+  for (const ch of text) {
+    if (ch === "(" || ch === "[" || ch === "{") depth++;
+    else if (ch === ")" || ch === "]" || ch === "}") depth--;
+    if (depth > MAX_FORMULA_DEPTH) throw new FormulaError(`The formula nests brackets more than ${MAX_FORMULA_DEPTH} deep.`);
+  }
   let node: MathNode;
   try {
     node = parse(text);
@@ -27,49 +69,152 @@ export function compileFormula(source: string, variable = "t"): CompiledFormula 
     throw new FormulaError(`The formula cannot be read: ${(e as Error).message}`);
   }
   const names = new Set<string>();
-  const functions = new Set<string>();
-  node.traverse((n, _path, parent) => {
-    if (n.type === "SymbolNode") {
-      const name = (n as unknown as { name: string }).name;
-      const isFn = parent?.type === "FunctionNode" && (parent as unknown as { fn: MathNode }).fn === n;
-      if (isFn) functions.add(name);
-      else names.add(name);
+  const refused = new Set<string>();
+  let size = 0;
+  const walk = (n: MathNode, level: number): void => {
+    size++;
+    if (size > MAX_FORMULA_NODES) throw new FormulaError(`The formula has more than ${MAX_FORMULA_NODES} terms and operations; write it shorter.`);
+    if (level > MAX_FORMULA_DEPTH) throw new FormulaError(`The formula nests more than ${MAX_FORMULA_DEPTH} levels deep.`);
+    if (!NODE_KINDS.has(n.type)) {
+      refused.add(describeNode(n));
+      return;
     }
-  });
+    const a = n as unknown as { name?: string; fn?: MathNode | string; op?: string; args?: MathNode[]; content?: MathNode; value?: unknown };
+    if (n.type === "ConstantNode") {
+      if (typeof a.value !== "number") refused.add(`the constant ${JSON.stringify(String(a.value)).slice(0, 40)} (only numbers)`);
+      return;
+    }
+    if (n.type === "SymbolNode") {
+      const name = a.name!;
+      if (!NAME.test(name)) refused.add(`the name "${name.slice(0, 40)}"`);
+      else if (FUNCTIONS.has(name)) refused.add(`"${name}" without brackets`);
+      else names.add(name);
+      return;
+    }
+    if (n.type === "OperatorNode") {
+      if (!OPERATORS.has(a.fn as string)) refused.add(`the operator "${a.op}"`);
+    } else if (n.type === "FunctionNode") {
+      const fn = a.fn as MathNode;
+      const fname = fn.type === "SymbolNode" ? (fn as unknown as { name: string }).name : null;
+      if (!fname || !FUNCTIONS.has(fname)) refused.add(fname ? `the function "${fname.slice(0, 40)}"` : "a computed function call");
+      else if (a.args!.length !== 1) refused.add(`"${fname}" with ${a.args!.length} arguments (it takes one)`);
+    }
+    for (const c of a.args ?? []) walk(c, level + 1);
+    if (a.content) walk(a.content, level + 1);
+  };
+  walk(node, 0);
+  if (refused.size)
+    throw new FormulaError(
+      `The formula uses ${[...refused].slice(0, 5).join(", ")}, which ${refused.size === 1 ? "is" : "are"} not allowed. A formula may use numbers, t, parameter names, + − × / ^, brackets and ${FORMULA_FUNCTIONS.join(", ")}.`,
+    );
   if (!names.has(variable)) throw new FormulaError(`The formula does not use the time variable "${variable}".`);
   const params = [...names].filter((n) => n !== variable && !KNOWN_CONSTANTS.has(n)).sort(naturalOrder);
   if (params.length === 0) throw new FormulaError("The formula has no parameters to fit.");
+  if (params.length > MAX_PARAMETERS) throw new FormulaError(`The formula has ${params.length} parameters; at most ${MAX_PARAMETERS} can be fitted.`);
+  return { text, node, params, size };
+}
 
-  let f: EvalFunction;
-  let d: EvalFunction[];
-  try {
-    f = compile(text);
-    d = params.map((p) => derivative(node, p).compile());
-  } catch (e) {
-    throw new FormulaError(`The formula cannot be differentiated: ${(e as Error).message}`);
+function describeNode(n: MathNode): string {
+  switch (n.type) {
+    case "AssignmentNode":
+    case "FunctionAssignmentNode":
+      return "an assignment";
+    case "AccessorNode":
+    case "IndexNode":
+      return "an index or property access";
+    case "ArrayNode":
+    case "ObjectNode":
+      return "a matrix or object";
+    case "RangeNode":
+      return "a range (:)";
+    case "RelationalNode":
+      return "a comparison";
+    case "ConditionalNode":
+      return "a condition (? :)";
+    case "BlockNode":
+      return "several statements";
+    default:
+      return `a ${n.type.replace(/Node$/, "").toLowerCase()}`;
   }
-  const scope: Record<string, number> = {};
-  const bind = (p: ArrayLike<number>) => params.forEach((name, j) => (scope[name] = p[j]!));
-  const num = (v: unknown): number => (typeof v === "number" ? v : Number(v));
+}
+
+export function compileFormula(source: string, variable = "t"): CompiledFormula {
+  const { text, node, params, size } = checkFormula(source, variable);
+  let f: EvalFunction;
+  let d: EvalFunction[] | null = null;
+  try {
+    f = node.compile();
+    if (size <= SYMBOLIC_DERIVATIVE_NODES) {
+      const until = performance.now() + SIMPLIFY_BUDGET_MS;
+      d = params.map((p) => {
+        let dp = simplifyCore(derivative(node, p, { simplify: false }));
+        if (performance.now() < until && simplifiable(dp)) dp = simplify(dp);
+        return dp.compile();
+      });
+    }
+  } catch (e) {
+    throw new FormulaError(`The formula cannot be compiled: ${(e as Error).message}`);
+  }
+  const scope = new Map<string, number>();
+  const bind = (p: ArrayLike<number>) => params.forEach((name, j) => scope.set(name, p[j]!));
+  const num = (v: unknown): number => (typeof v === "number" ? v : NaN);
+  const at = (ti: number): number => {
+    scope.set(variable, ti);
+    return num(f.evaluate(scope));
+  };
+  /** Central difference in parameter j at one time, the others as bound. */
+  const difference = (ti: number, p: ArrayLike<number>, j: number): number => {
+    const name = params[j]!;
+    const v = p[j]!;
+    const h = 1e-6 * Math.max(Math.abs(v), 1e-6);
+    scope.set(name, v + h);
+    const up = at(ti);
+    scope.set(name, v - h);
+    const down = at(ti);
+    scope.set(name, v);
+    return (up - down) / (2 * h);
+  };
   return {
     expression: text,
     params,
     evaluate(t, p, out) {
       bind(p);
-      for (let i = 0; i < t.length; i++) {
-        scope[variable] = t[i]!;
-        out[i] = num(f.evaluate(scope));
-      }
+      for (let i = 0; i < t.length; i++) out[i] = at(t[i]!);
     },
     jacobian(t, p, J) {
       bind(p);
       const n = t.length;
       for (let i = 0; i < n; i++) {
-        scope[variable] = t[i]!;
-        for (let j = 0; j < params.length; j++) J[j * n + i] = num(d[j]!.evaluate(scope));
+        scope.set(variable, t[i]!);
+        for (let j = 0; j < params.length; j++) {
+          let v = d ? num(d[j]!.evaluate(scope)) : NaN;
+          if (!Number.isFinite(v)) v = difference(t[i]!, p, j);
+          J[j * n + i] = v;
+        }
       }
     },
   };
+}
+
+/** Small, with no long chains of + or ×: mathjs's simplify is cheap on it. */
+function simplifiable(node: MathNode): boolean {
+  let size = 0;
+  let longest = 0;
+  node.traverse((n) => {
+    size++;
+    if (n.type === "OperatorNode") {
+      const fn = (n as unknown as { fn: string }).fn;
+      if (fn === "add" || fn === "multiply" || fn === "subtract") longest = Math.max(longest, chainLength(n, fn));
+    }
+  });
+  return size <= SIMPLIFY_NODES && longest <= SIMPLIFY_CHAIN;
+}
+
+function chainLength(n: MathNode, fn: string): number {
+  const a = n as unknown as { type: string; fn?: string; args?: MathNode[]; content?: MathNode };
+  if (a.type === "ParenthesisNode") return chainLength(a.content!, fn);
+  if (a.type !== "OperatorNode" || a.fn !== fn || a.args!.length !== 2) return 1;
+  return a.args!.reduce((s, c) => s + chainLength(c, fn), 0);
 }
 
 /** b1, b2, ..., b10 in numeric order rather than text order. */

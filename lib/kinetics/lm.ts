@@ -32,9 +32,11 @@ export interface LmOptions {
    * The covariance at the solution always comes from a QR of J.
    */
   solver?: "qr" | "normal-equations";
+  /** Wall-clock time (Date.now()) after which the fit stops unconverged with stop "time-budget". */
+  deadline?: number;
 }
 
-export type LmStop = "ftol" | "xtol" | "gtol" | "zero-residual" | "max-iterations" | "no-progress" | "not-finite";
+export type LmStop = "ftol" | "xtol" | "gtol" | "zero-residual" | "max-iterations" | "no-progress" | "not-finite" | "time-budget";
 
 export interface LmResult {
   x: Float64Array;
@@ -208,6 +210,7 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
 
   for (let it = 1; it <= opts.maxIterations; it++) {
     if (pw === 0 || gradientCosine() <= opts.gtol) return finish(true, "gtol", it - 1);
+    if (opts.deadline !== undefined && Date.now() > opts.deadline) return finish(false, "time-budget", it - 1);
     // Solve min ‖[R; √λ D] h + [Qᵀr; 0]‖ by a small QR.
     const m = 2 * pw;
     const M = new Float64Array(m * pw);

@@ -17,7 +17,12 @@ export interface NlsOptions {
   maxIterations?: number;
   /** See LmOptions.solver; built-in models on long series use the normal equations (with a QR fallback). */
   solver?: "qr" | "normal-equations";
+  /** Wall-clock budget for all starts together; past it the fit stops unconverged and says so. */
+  timeBudgetMs?: number;
 }
+
+/** Every fit has a time limit (a hostile formula or a huge series cannot hold the thread indefinitely). */
+export const FIT_TIME_BUDGET_MS = 20_000;
 
 export const CORRELATION_WARNING = 0.95;
 
@@ -122,9 +127,11 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
 
   let best: LmResult | null = null;
   let startsTried = 0;
+  const deadline = Date.now() + (opts.timeBudgetMs ?? FIT_TIME_BUDGET_MS);
   for (const s of [opts.start, ...(opts.alternativeStarts ?? [])]) {
+    if (startsTried > 0 && Date.now() > deadline) break;
     startsTried++;
-    const res = levenbergMarquardt(problem, vec(s), { free, lower, upper, maxIterations: opts.maxIterations, solver: opts.solver });
+    const res = levenbergMarquardt(problem, vec(s), { free, lower, upper, maxIterations: opts.maxIterations, solver: opts.solver, deadline });
     if (res.converged && Number.isFinite(res.ssr) && (!best || !best.converged || res.ssr < best.ssr)) best = res;
     else if (!best) best = res;
     if (best.converged) break;
@@ -134,7 +141,9 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
     const why =
       lm.stop === "max-iterations"
         ? `it did not converge within ${lm.iterations} iterations`
-        : lm.stop === "not-finite"
+        : lm.stop === "time-budget"
+          ? `it ran past its time limit of ${((opts.timeBudgetMs ?? FIT_TIME_BUDGET_MS) / 1000).toFixed(0)} s`
+          : lm.stop === "not-finite"
           ? "the model gave values that are not finite numbers (overflow, or a parameter outside the model's domain)"
           : "it stopped making progress before meeting the convergence tests";
     return {

@@ -66,9 +66,11 @@ export function arrhenius(points: readonly RatePoint[]): ArrheniusResult {
     const [a, b] = points as [RatePoint, RatePoint];
     const ea = twoPointEa(a, b);
     const lnA = Math.log(a.k) + ea / (GAS_R * a.temperatureK);
-    const dH = ea - GAS_R * (a.temperatureK + b.temperatureK) / 2;
-    const lnKT = Math.log(a.k / a.temperatureK);
-    const dS = GAS_R * (lnKT + dH / (GAS_R * a.temperatureK) - LN_KB_OVER_H);
+    // Eyring from the line through the two points of ln(k/T) on 1/T, as the n ≥ 3 path and the CLI contract do.
+    const eSlope = (Math.log(b.k / b.temperatureK) - Math.log(a.k / a.temperatureK)) / (1 / b.temperatureK - 1 / a.temperatureK);
+    const eIntercept = Math.log(a.k / a.temperatureK) - eSlope / a.temperatureK;
+    const dH = -eSlope * GAS_R;
+    const dS = GAS_R * (eIntercept - LN_KB_OVER_H);
     warnings.push("Two temperatures only: the activation energy comes from the two points, with no uncertainty.");
     return {
       n: 2,
