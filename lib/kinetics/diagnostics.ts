@@ -75,3 +75,58 @@ export function extraSumOfSquaresF(simple: { ssr: number; dof: number }, complex
   const f = (simple.ssr - complex.ssr) / df1 / (complex.ssr / df2);
   return { f, df1, df2, p: 1 - fCdf(Math.max(f, 0), df1, df2) };
 }
+
+/**
+ * Student's t of the quadratic term of y = b0 + b1·u + b2·u² by least squares (u = t scaled to [−1, 1], the quadratic
+ * column centred): |t| below about 2 means the data show no curvature a curved model could fit. Null for fewer than
+ * four points or no time span.
+ */
+export function curvatureT(t: ArrayLike<number>, y: ArrayLike<number>): number | null {
+  const n = t.length;
+  if (n < 4) return null;
+  let tmin = Infinity,
+    tmax = -Infinity;
+  for (let i = 0; i < n; i++) {
+    tmin = Math.min(tmin, t[i]!);
+    tmax = Math.max(tmax, t[i]!);
+  }
+  const half = (tmax - tmin) / 2;
+  if (!(half > 0)) return null;
+  const mid = tmin + half;
+  const u = new Float64Array(n);
+  let q = 0;
+  for (let i = 0; i < n; i++) {
+    u[i] = (t[i]! - mid) / half;
+    q += u[i]! * u[i]!;
+  }
+  q /= n;
+  // Normal equations of [1, u, u² − mean(u²)]: well conditioned on [−1, 1].
+  const X = [new Float64Array(n).fill(1), u, u.map((v) => v * v - q)];
+  const A = [0, 1, 2].map((a) => [0, 1, 2].map((b) => { let s = 0; for (let i = 0; i < n; i++) s += X[a]![i]! * X[b]![i]!; return s; }));
+  const g = [0, 1, 2].map((a) => { let s = 0; for (let i = 0; i < n; i++) s += X[a]![i]! * y[i]!; return s; });
+  const inv = invert3(A);
+  if (!inv) return null;
+  const b = [0, 1, 2].map((a) => inv[a]![0]! * g[0]! + inv[a]![1]! * g[1]! + inv[a]![2]! * g[2]!);
+  let ssr = 0;
+  for (let i = 0; i < n; i++) ssr += (y[i]! - b[0]! - b[1]! * X[1]![i]! - b[2]! * X[2]![i]!) ** 2;
+  const s2 = ssr / (n - 3);
+  const se = Math.sqrt(s2 * inv[2]![2]!);
+  if (!(se > 0)) return b[2] === 0 ? 0 : null;
+  return b[2]! / se;
+}
+
+function invert3(m: number[][]): number[][] | null {
+  const [a, b, c] = m[0]!,
+    [d, e, f] = m[1]!,
+    [g, h, k] = m[2]!;
+  const A = e! * k! - f! * h!,
+    B = -(d! * k! - f! * g!),
+    C = d! * h! - e! * g!;
+  const det = a! * A + b! * B + c! * C;
+  if (!(Math.abs(det) > 0) || !Number.isFinite(det)) return null;
+  return [
+    [A / det, -(b! * k! - c! * h!) / det, (b! * f! - c! * e!) / det],
+    [B / det, (a! * k! - c! * g!) / det, -(a! * f! - c! * d!) / det],
+    [C / det, -(a! * h! - b! * g!) / det, (a! * e! - b! * d!) / det],
+  ];
+}

@@ -36,6 +36,17 @@ function lineResult(model: string, line: LineFit, parameters: ParameterEstimate[
   };
 }
 
+/** An amplitude at t = 0 from a line's intercept: out of range when t = 0 lies far before the readings (Unix time). */
+function amplitudeAtZero(name: string, value: number, ts: readonly number[], line: LineFit): { ok: boolean; note: string | null } {
+  if (Number.isFinite(value) && value !== 0) return { ok: true, note: null };
+  const first = Math.min(...ts);
+  const atFirst = Math.exp(line.intercept + line.slope * first);
+  return {
+    ok: false,
+    note: `${name} is the value at t = 0, ${first.toPrecision(4)} s before the first reading: extrapolated that far it is out of range, so it is not given. At the first reading the line gives an amplitude of ${atFirst.toPrecision(6)}.`,
+  };
+}
+
 export interface LinearizedOptions {
   ainf: number;
   /** Where A∞ came from, said in the message. */
@@ -73,9 +84,11 @@ export function linearizedFirstOrder(t: ArrayLike<number>, y: ArrayLike<number>,
     throw e;
   }
   const amp = Math.exp(line.intercept);
+  const a0 = amplitudeAtZero("a0", amp, ts, line);
+  if (a0.note) warnings.push(a0.note);
   const parameters = [
     est("k", -line.slope, line.seSlope, line.tCrit),
-    est("a0", opts.ainf + sign * amp, line.seIntercept === null ? null : amp * line.seIntercept, line.tCrit),
+    a0.ok ? est("a0", opts.ainf + sign * amp, line.seIntercept === null ? null : amp * line.seIntercept, line.tCrit) : { name: "a0", value: null, se: null, ci95: null, fixed: false },
     est("ainf", opts.ainf, null, line.tCrit, true),
   ];
   const message = `Least squares of ln(${sign > 0 ? "y − ainf" : "ainf − y"}) on t${opts.weighted ? ", weighted by (y − ainf)²" : ""}; ainf ${opts.ainfSource}. r2, ssr and residuals are those of the straight line (log units).`;
@@ -122,9 +135,12 @@ export function guggenheim(t: ArrayLike<number>, y: ArrayLike<number>, interval:
     throw e;
   }
   const amp = Math.exp(line.intercept);
+  const amplitude = sign * amp * (1 - Math.exp(line.slope * interval)) ** -1;
+  const at0 = amplitudeAtZero("amplitude", amplitude, ts, line);
+  if (at0.note) warnings.push(at0.note);
   const parameters = [
     est("k", -line.slope, line.seSlope, line.tCrit),
-    est("amplitude", sign * amp * (1 - Math.exp(line.slope * interval)) ** -1, null, line.tCrit),
+    at0.ok ? est("amplitude", amplitude, null, line.tCrit) : { name: "amplitude", value: null, se: null, ci95: null, fixed: false },
   ];
   return lineResult("guggenheim", line, parameters, `Least squares of ln|y(t) − y(t + ${interval} s)| on t over ${ts.length} pairs; A∞ not needed.`, warnings, "none", ts);
 }

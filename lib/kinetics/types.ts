@@ -2,13 +2,16 @@
 
 export interface ParameterEstimate {
   name: string;
-  /** Null only when the fit failed: start values are never handed back as an answer. */
+  /** Null when the fit failed (start values are never handed back as an answer), or for a value at t = 0 that is out
+   * of range (the result's warnings say why). */
   value: number | null;
   se: number | null;
   ci95: [number, number] | null;
   fixed: boolean;
   /** SE with a calibration slope's uncertainty added (rate constants fitted on calibrated concentrations). */
   se_with_calibration?: number;
+  /** Held at a value another model fitted (the linearized fit's A∞ from the nonlinear first-order fit). */
+  held_from?: string;
 }
 
 export type Weighting =

@@ -4,7 +4,7 @@
 import { akaikeWeights } from "./diagnostics";
 import { fitKinetics, FitSpecError } from "./fit";
 import { failedFit } from "./nls";
-import { BUILT_IN_MODELS } from "./models";
+import { modelById } from "./models";
 import { beerLambertConcentration, halfLife, t90 } from "./quantities";
 import type { FitResult } from "./types";
 
@@ -37,9 +37,6 @@ export function convertReading(a: number, c: Conversion): number {
   return (a - (c.blank ?? 0) - c.intercept) / c.slope;
 }
 
-/** Models whose k has concentration in its units, so the calibration slope's uncertainty enters k. */
-const CONCENTRATION_SCALED_K = new Set(["zero-order", "second-order"]);
-
 export interface ModelOutcome {
   model: string;
   result: Omit<FitResult, "residuals" | "fitted">;
@@ -61,9 +58,6 @@ export interface SeriesFitOutcome {
   /** Residuals and fitted values per model, over the included points (for plots; not stored in records). */
   curves: Record<string, { t: Float64Array; fitted: Float64Array; residuals: Float64Array }>;
 }
-
-/** Models whose SSR is in the data's own units, so AICc can compare them. */
-const COMPARABLE = new Set(["first-order", "zero-order", "second-order", "biexponential", "formula"]);
 
 export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: SeriesFitOptions): SeriesFitOutcome {
   const n = tAll.length;
@@ -98,7 +92,8 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
     yy = Float64Array.from(y);
   const curves: SeriesFitOutcome["curves"] = {};
   const raw = o.models.map((model) => {
-    const params = model === "formula" ? null : model === "linearized" ? ["k", "a0", "ainf"] : model === "guggenheim" ? ["k", "amplitude"] : model === "kezdy-swinbourne" ? ["k", "ainf"] : (BUILT_IN_MODELS[model]?.params ?? []);
+    const d = modelById(model);
+    const params = !d || d.family === "formula" ? null : d.params.map((p) => p.name);
     const fixed = Object.fromEntries(Object.entries(o.fixed ?? {}).filter(([k]) => params === null || params.includes(k)));
     const starts = Object.fromEntries(Object.entries(o.starts ?? {}).filter(([k]) => params === null || params.includes(k)));
     let r: FitResult;
@@ -117,24 +112,22 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
       r = failedFit(model, [], tt.length, `No fit: ${e.message}`);
     }
     const { residuals, fitted, ...rest } = r;
-    if (o.conversion?.kind === "calibration" && CONCENTRATION_SCALED_K.has(model)) {
+    if (o.conversion?.kind === "calibration" && d?.kScalesWithConcentration) {
       const cal = o.conversion;
       rest.parameters = rest.parameters.map((p) =>
         p.name === "k" && p.value !== null && p.se !== null ? { ...p, se_with_calibration: Math.abs(p.value) * Math.hypot(p.se / p.value, cal.seSlope / cal.slope) } : p,
       );
     }
-    const linearLike = model === "linearized" || model === "guggenheim" || model === "kezdy-swinbourne";
-    curves[model] = { t: linearLike ? Float64Array.from([]) : tt, fitted, residuals };
+    curves[model] = { t: d?.family === "straight-line" ? Float64Array.from([]) : tt, fitted, residuals };
     const k = r.parameters.find((p) => p.name === "k");
-    const firstOrderFamily = ["first-order", "linearized", "guggenheim", "kezdy-swinbourne"].includes(model);
     return {
       model,
       result: rest,
-      halfLife: firstOrderFamily && k?.value ? halfLife(k.value, k.se) : null,
-      t90: firstOrderFamily && k?.value ? t90(k.value, k.se) : null,
+      halfLife: d?.firstOrderK && k?.value ? halfLife(k.value, k.se) : null,
+      t90: d?.firstOrderK && k?.value ? t90(k.value, k.se) : null,
     };
   });
-  const weights = akaikeWeights(raw.map((m) => (COMPARABLE.has(m.model) && m.result.converged ? m.result.aicc : null)));
+  const weights = akaikeWeights(raw.map((m) => (modelById(m.model)?.comparable && m.result.converged ? m.result.aicc : null)));
   const models: ModelOutcome[] = raw.map((m, i) => ({ ...m, akaikeWeight: weights[i] ?? null }));
   let favoured: SeriesFitOutcome["favoured"] = null;
   const ranked = models.filter((m) => m.akaikeWeight !== null).sort((a, b) => b.akaikeWeight! - a.akaikeWeight!);
@@ -151,11 +144,25 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
   } else if (ranked.length === 1) {
     favoured = { model: ranked[0]!.model, why: "the only model here whose sum of squares is in the data's own units." };
   }
-  if (models.some((m) => m.model === "linearized") && models.some((m) => m.model === "first-order")) {
-    const kl = models.find((m) => m.model === "linearized")!.result.parameters.find((p) => p.name === "k")?.value;
-    const kn = models.find((m) => m.model === "first-order")!.result.parameters.find((p) => p.name === "k")?.value;
-    if (kl && kn && Math.abs(kl / kn - 1) > 0.05)
-      notes.push(`The linearized and nonlinear first-order k differ by ${(100 * Math.abs(kl / kn - 1)).toFixed(0)} %: the log transform weights the noisy tail heavily, and a wrong or drifting A∞ bends the line. Prefer the nonlinear fit, and check A∞.`);
-  }
+  const disagreement = linearizedDisagreement(models, o.logWeights ?? false);
+  if (disagreement) notes.push(disagreement);
   return { n: t.length, included, quantity: o.conversion ? "concentration" : "absorbance", reading_range: readingRange, models, favoured, notes, curves };
+}
+
+/** Beyond this many combined standard errors, the linearized and the nonlinear k disagree. */
+export const K_DISAGREEMENT_Z = 3;
+
+/** The linearized and the nonlinear first-order k compared through their uncertainties, said in words when they disagree. */
+export function linearizedDisagreement(models: readonly ModelOutcome[], logWeights: boolean): string | null {
+  const k = (id: string) => models.find((m) => m.model === id && m.result.converged)?.result.parameters.find((p) => p.name === "k");
+  const kl = k("linearized"),
+    kn = k("first-order");
+  if (!kl?.value || !kn?.value || kl.se === null || kn.se === null) return null;
+  const z = Math.abs(kl.value - kn.value) / Math.hypot(kl.se, kn.se);
+  if (!(z > K_DISAGREEMENT_Z)) return null;
+  return `The linearized and nonlinear first-order k disagree: they differ by ${(100 * Math.abs(kl.value / kn.value - 1)).toFixed(1)} %, ${z.toFixed(1)} times their combined standard error. ${
+    logWeights
+      ? "Even weighted, the log transform follows a wrong or drifting A∞; check A∞ and prefer the nonlinear fit."
+      : "The unweighted log transform stretches the noisy tail, and a wrong or drifting A∞ bends the line: prefer the nonlinear fit, or weight the linearized fit by (y − A∞)²."
+  }`;
 }
