@@ -19,7 +19,12 @@ export interface NlsOptions {
   solver?: "qr" | "normal-equations";
   /** Wall-clock budget for all starts together; past it the fit stops unconverged and says so. */
   timeBudgetMs?: number;
+  /** Added to times when points are named in warnings (fits run in times counted from the first reading). */
+  timeOrigin?: number;
 }
+
+/** |r| at or above this: the two parameters cannot be told apart by the data. */
+export const INDISTINGUISHABLE = 0.99;
 
 /** Every fit has a time limit (a hostile formula or a huge series cannot hold the thread indefinitely). */
 export const FIT_TIME_BUDGET_MS = 20_000;
@@ -188,10 +193,19 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
       correlation.push(row);
     }
     for (let a = 0; a < pf; a++)
-      for (let b = a + 1; b < pf; b++)
-        if (Math.abs(correlation[a]![b]!) >= CORRELATION_WARNING)
-          warnings.push(`${correlationNames[a]} and ${correlationNames[b]} are strongly correlated (r = ${correlation[a]![b]!.toFixed(3)}): their individual uncertainties are larger than they look.`);
+      for (let b = a + 1; b < pf; b++) {
+        const rho = correlation[a]![b]!;
+        if (Math.abs(rho) >= INDISTINGUISHABLE)
+          warnings.push(`${correlationNames[a]} and ${correlationNames[b]} cannot be told apart by these data (r = ${rho.toFixed(4)}): a change in one is matched by the other, so neither is determined on its own. Fix one at a measured value, record for longer, or choose a simpler model.`);
+        else if (Math.abs(rho) >= CORRELATION_WARNING)
+          warnings.push(`${correlationNames[a]} and ${correlationNames[b]} are strongly correlated (r = ${rho.toFixed(3)}): their individual uncertainties are larger than they look.`);
+      }
+  } else {
+    const pair = mostAlike(problem, lm.x, lm.freeIndex, n);
+    if (pair) warnings.push(`${model.params[pair[0]]} and ${model.params[pair[1]]} cannot be told apart by these data: no standard errors can be given. Fix one at a measured value or choose a simpler model.`);
   }
+  const outliers = outlyingPoints(problem, lm, n, dof, s2, t, opts.timeOrigin ?? 0);
+  if (outliers) warnings.push(outliers);
 
   const parameters: ParameterEstimate[] = model.params.map((name, j) => {
     if (!free[j]) return { name, value: fixed[name]!, se: null, ci95: null, fixed: true };
@@ -232,4 +246,72 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
     residuals: resid,
     fitted: fbuf,
   };
+}
+
+/** The two free parameters whose Jacobian columns are most nearly parallel (when the covariance is singular). */
+function mostAlike(problem: { jacobian(x: Float64Array, J: Float64Array): void; p: number }, x: Float64Array, free: number[], n: number): [number, number] | null {
+  if (free.length < 2) return null;
+  const J = new Float64Array(n * problem.p);
+  problem.jacobian(x, J);
+  const norm = (j: number) => Math.sqrt(J.subarray(j * n, (j + 1) * n).reduce((s, v) => s + v * v, 0));
+  let best: [number, number] | null = null,
+    bestCos = -1;
+  for (let a = 0; a < free.length; a++)
+    for (let b = a + 1; b < free.length; b++) {
+      const ja = free[a]!,
+        jb = free[b]!;
+      let dot = 0;
+      for (let i = 0; i < n; i++) dot += J[ja * n + i]! * J[jb * n + i]!;
+      const c = Math.abs(dot) / (norm(ja) * norm(jb) || 1);
+      if (c > bestCos) [bestCos, best] = [c, [ja, jb]];
+    }
+  return best;
+}
+
+/**
+ * Internally studentized residuals r_i = e_i / (s·sqrt(1 − h_ii)), h_ii from the Jacobian at the solution (Belsley,
+ * Kuh & Welsch 1980; NIST/SEMATECH e-Handbook 4.4.5.1); a point is named when |r_i| exceeds the Bonferroni-corrected
+ * two-sided 5 % quantile of t (at least 3), so a clean trace of any length names none.
+ */
+function outlyingPoints(
+  problem: { jacobian(x: Float64Array, J: Float64Array): void; residuals(x: Float64Array, out: Float64Array): void; p: number },
+  lm: LmResult,
+  n: number,
+  dof: number,
+  s2: number,
+  t: Float64Array,
+  origin: number,
+): string | null {
+  const pf = lm.freeIndex.length;
+  if (!lm.inverseHessian || dof < 3 || !(s2 > 0)) return null;
+  const J = new Float64Array(n * problem.p);
+  problem.jacobian(lm.x, J);
+  const r = new Float64Array(n);
+  problem.residuals(lm.x, r);
+  const H = lm.inverseHessian;
+  const limit = Math.max(3, tQuantile(1 - 0.025 / n, dof));
+  const s = Math.sqrt(s2);
+  const found: Array<{ i: number; z: number }> = [];
+  const row = new Float64Array(pf);
+  for (let i = 0; i < n; i++) {
+    for (let a = 0; a < pf; a++) row[a] = J[lm.freeIndex[a]! * n + i]!;
+    let h = 0;
+    for (let a = 0; a < pf; a++) {
+      let q = 0;
+      for (let b = 0; b < pf; b++) q += H[a * pf + b]! * row[b]!;
+      h += row[a]! * q;
+    }
+    if (!(h < 1)) continue;
+    // residuals() gives fitted − observed (weighted); the reader's residual is observed − fitted.
+    const z = -r[i]! / (s * Math.sqrt(1 - h));
+    if (Math.abs(z) > limit) found.push({ i, z });
+  }
+  if (!found.length) return null;
+  found.sort((a, b) => Math.abs(b.z) - Math.abs(a.z));
+  const named = found.slice(0, 5).map(({ i, z }) => `t = ${formatTime(t[i]! + origin)} s (r = ${z.toFixed(1)})`);
+  return `${found.length === 1 ? "One reading lies" : `${found.length} readings lie`} far off the fitted curve (studentized residual beyond ±${limit.toFixed(1)}): ${named.join(", ")}${found.length > 5 ? ", …" : ""}. A single such point can move k by several per cent: check it, and exclude it with a reason if it is an artefact.`;
+}
+
+function formatTime(v: number): string {
+  return Math.abs(v) >= 1e6 ? v.toFixed(1) : String(Number(v.toPrecision(6)));
 }

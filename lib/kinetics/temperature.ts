@@ -97,6 +97,8 @@ export function arrhenius(points: readonly RatePoint[]): ArrheniusResult {
   const ea = -arr.slope * GAS_R;
   const seEa = arr.seSlope * GAS_R;
   const corr = arr.covSlopeIntercept !== null && arr.seIntercept ? -arr.covSlopeIntercept / (arr.seSlope * arr.seIntercept) : null;
+  const odd = outlyingTemperature(points, weights);
+  if (odd) warnings.push(odd);
   return {
     n: points.length,
     method: "least-squares",
@@ -113,6 +115,31 @@ export function arrhenius(points: readonly RatePoint[]): ArrheniusResult {
     temperatureRangeK: range,
     warnings,
   };
+}
+
+/**
+ * Externally studentized residuals of the Arrhenius line (each point against the line through the others; Belsley,
+ * Kuh & Welsch 1980): a temperature is named when |t| exceeds the Bonferroni-corrected two-sided 5 % quantile of
+ * t with n − 3 degrees of freedom. Needs four temperatures at least.
+ */
+export function outlyingTemperature(points: readonly RatePoint[], weights?: readonly number[]): string | null {
+  const n = points.length;
+  if (n < 4) return null;
+  const limit = tQuantile(1 - 0.025 / n, n - 3);
+  let worst: { i: number; z: number } | null = null;
+  for (let i = 0; i < n; i++) {
+    const keep = points.map((_, j) => j).filter((j) => j !== i);
+    const w = weights ? keep.map((j) => weights[j]!) : undefined;
+    const line = fitLine(keep.map((j) => 1 / points[j]!.temperatureK), keep.map((j) => Math.log(points[j]!.k)), { weights: w });
+    const p = predictLine(line, 1 / points[i]!.temperatureK);
+    // The point's own variance s²/w_i (relative weights: the others' s² carries the scale).
+    const own = line.residualSd ** 2 / (weights ? weights[i]! : 1);
+    const z = (Math.log(points[i]!.k) - p.value) / Math.sqrt(own + p.seMean ** 2);
+    if (Number.isFinite(z) && (!worst || Math.abs(z) > Math.abs(worst.z))) worst = { i, z };
+  }
+  if (!worst || !(Math.abs(worst.z) > limit)) return null;
+  const T = points[worst.i]!.temperatureK - KELVIN_OFFSET;
+  return `The rate constant at ${T.toFixed(1)} °C lies off the line through the others (studentized residual ${worst.z.toFixed(1)}, beyond ±${limit.toFixed(1)}): check that run before relying on Ea.`;
 }
 
 /** ln k predicted at a temperature from the Arrhenius line, with the 95 % prediction interval of k. */

@@ -39,6 +39,15 @@ const model: NonlinearModel = {
     }
     return LABELS;
   },
+  check(r) {
+    const p = (n: string) => r.parameters.find((q) => q.name === n)!;
+    const [a1, k1, a2, k2] = [p("a1"), p("k1"), p("a2"), p("k2")];
+    if ([a1, k1, a2, k2].some((q) => q.fixed)) return null;
+    const apart = k1.se !== null && k2.se !== null && Math.abs(k1.value! - k2.value!) > 2 * Math.hypot(k1.se, k2.se);
+    const both = [a1, a2].every((q) => q.se !== null && Math.abs(q.value!) > 2 * q.se);
+    if (apart && both) return null;
+    return `The two phases cannot be told apart by these data (${apart ? "" : "k1 and k2 are within two standard errors of each other"}${!apart && !both ? "; " : ""}${both ? "" : "an amplitude is within two standard errors of zero"}): a single exponential describes them as well. Prefer the first-order fit.`;
+  },
   toOrigin(v, tref) {
     // a_i = a_i'·exp(k_i·tref)
     const E1 = Math.exp(v.k1! * tref),

@@ -6,8 +6,8 @@ import type { ModelDescriptor } from "./types";
 
 /** Below this r², a fit made from default start values is said to be poor. */
 const POOR_R2 = 0.9;
-/** A formula parameter this many times the data's largest scale (values, times, inverse spacing) has run away. */
-const RUNAWAY_FACTOR = 1e9;
+/** A formula parameter this many times the data's scale (largest value, inverse reading spacing, 1) has run away. */
+const RUNAWAY_FACTOR = 1e6;
 
 export const formulaModel: ModelDescriptor = {
   id: "formula",
@@ -63,7 +63,6 @@ function dataScale(t: Float64Array, y: Float64Array): number {
     tmin = Math.min(tmin, t[i]!);
     tmax = Math.max(tmax, t[i]!);
   }
-  s = Math.max(s, Math.abs(tmax), Math.abs(tmin));
   if (t.length > 1 && tmax > tmin) s = Math.max(s, t.length / (tmax - tmin));
   return s;
 }

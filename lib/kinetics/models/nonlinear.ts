@@ -17,8 +17,10 @@ export class FitSpecError extends Error {
  * 1e6 points; QR takes over when the scaled JᵀJ is ill-conditioned, and the covariance always comes from QR). */
 const NORMAL_EQUATIONS_FROM = 20_000;
 
-/** A fitted value this many times its natural scale (the data's range, the inverse reading interval) has run away. */
-const RUNAWAY_FACTOR = 1e6;
+/** A fitted rate this many times its natural scale (the inverse reading interval) has run away; a value in the data's
+ * units (an amplitude, an end value) this many times the data's own scale has too. */
+const RUNAWAY_RATE = 1e6;
+const RUNAWAY_VALUE = 1e3;
 
 export function nonlinearDescriptor(meta: Omit<ModelDescriptor, "fit" | "curve" | "family">, model: NonlinearModel): ModelDescriptor {
   const names = meta.params.map((p) => p.name);
@@ -54,6 +56,7 @@ function fitBuiltIn(id: string, params: ModelDescriptor["params"], model: Nonlin
       lower: model.lower,
       weighting: spec.weighting,
       solver: t.length >= NORMAL_EQUATIONS_FROM ? "normal-equations" : "qr",
+      timeOrigin: tref,
     });
   let r = run(starts);
   if (r.converged && model.normalise) {
@@ -66,7 +69,11 @@ function fitBuiltIn(id: string, params: ModelDescriptor["params"], model: Nonlin
   }
   if (r.converged) {
     const away = runaway(r, params, t, y);
-    if (away) return { ...failedFit(id, model.params, t.length, away, fixed), iterations: r.iterations };
+    if (away) return { ...failedFit(id, model.params, t.length, [away, noCurvature(t, y)].filter(Boolean).join(" "), fixed), iterations: r.iterations };
+    const doubt = model.check?.(r);
+    if (doubt) r.warnings.push(doubt);
+    const flat = model.straight ? null : noCurvature(t, y);
+    if (flat) r.warnings.push(flat.replace("so a curved model cannot find its rate constant here", "so the rate constant rests on the model's shape rather than on the data"));
   } else {
     const flat = noCurvature(t, y);
     if (flat) r.message += ` ${flat}`;
@@ -78,13 +85,13 @@ function fitBuiltIn(id: string, params: ModelDescriptor["params"], model: Nonlin
 function naturalScale(dim: Dimension, yScale: number, dt: number): number | null {
   switch (dim) {
     case "y":
-      return yScale;
+      return RUNAWAY_VALUE * yScale;
     case "1/t":
-      return 1 / dt;
+      return RUNAWAY_RATE / dt;
     case "y/t":
-      return yScale / dt;
+      return (RUNAWAY_RATE * yScale) / dt;
     case "1/(y t)":
-      return 1 / (yScale * dt);
+      return RUNAWAY_RATE / (yScale * dt);
     default:
       return null;
   }
@@ -109,7 +116,7 @@ function runaway(r: FitResult, params: ModelDescriptor["params"], t: Float64Arra
     if (p.fixed || p.value === null) return false;
     const spec = params.find((q) => q.name === p.name);
     const scale = spec ? naturalScale(spec.dimension, yScale, dt) : null;
-    return scale !== null && Math.abs(p.value) > RUNAWAY_FACTOR * scale;
+    return scale !== null && Math.abs(p.value) > scale;
   });
   if (!off.length) return null;
   return `The fit did not settle: ${off.map((p) => `${p.name} ran off towards ${p.value! > 0 ? "+" : "−"}infinity (${p.value!.toPrecision(3)})`).join(", ")}, far beyond anything these data can hold. Fix a parameter at a measured value, give start values, leave out a spike, or choose another model.`;

@@ -59,6 +59,10 @@ export interface NonlinearModel extends ModelFunction {
    * value that cannot be represented (an amplitude extrapolated past overflow) null with the reason.
    */
   toOrigin?(values: Record<string, number>, tref: number): { values: Record<string, number | null>; gradient: number[][]; notes: string[] };
+  /** A straight line in t (zero order): the no-curvature check does not apply. */
+  straight?: boolean;
+  /** A doubt about a converged fit that only this model can see (two phases that cannot be told apart). */
+  check?(r: FitResult): string | null;
   /** Parameters whose meaning depends on the time origin: fixing one keeps the fit in the user's own times. */
   originDependent: readonly string[];
 }

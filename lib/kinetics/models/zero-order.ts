@@ -7,6 +7,7 @@ const model: NonlinearModel = {
   params: ["a0", "k"],
   lower: {},
   originDependent: ["a0"],
+  straight: true,
   evaluate(t, p, out) {
     for (let i = 0; i < t.length; i++) out[i] = p[0]! - p[1]! * t[i]!;
   },
