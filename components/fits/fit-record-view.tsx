@@ -10,8 +10,8 @@ import { getDb } from "@/db";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { listAuditTrail } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
-import { getFitRecord, versionsOfRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
-import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
+import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
+import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { can } from "@/lib/permissions";
 
 
@@ -31,6 +31,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
   const audit = outside ? [] : await listAuditTrail(db, labId, { limit: 200, objectType: "fit", objectId: String(rec.record_id) });
   const newest = versions.at(-1)!;
   const k = rec.primary.k;
+  const units = recordUnits(rec.results, rec.options);
   return (
     <>
       <PageHeader
@@ -66,9 +67,13 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
       <section className="mb-6 rounded-cell bg-paper-raised p-5 shadow-lift">
         <p className="text-sm text-ink-500">Rate constant ({rec.primary.model})</p>
         <p className="num font-mono text-3xl" data-testid="record-k">
-          k = {k === null ? "—" : formatWithUncertainty(k, rec.primary.k_se)} s{superscript(-1)}
+          k = {k === null ? "—" : formatWithUncertainty(k, rec.primary.k_se)} {recordParameterUnit(rec.primary.model, "k", units)}
         </p>
-        {k !== null && <p className="num mt-1 font-mono text-sm text-ink-700">= {formatWithUncertainty(k * 60, rec.primary.k_se === null ? null : rec.primary.k_se * 60)} min{superscript(-1)}</p>}
+        {k !== null && (
+          <p className="num mt-1 font-mono text-sm text-ink-700">
+            = {formatWithUncertainty(k * 60, rec.primary.k_se === null ? null : rec.primary.k_se * 60)} {recordParameterUnit(rec.primary.model, "k", { ...units, t: "min" })}
+          </p>
+        )}
         <p className="mt-3 text-xs text-ink-500">
           {rec.engine_version} · content hash <span className="font-mono">{rec.content_hash.slice(0, 16)}…</span> · data SHA-256 <span className="font-mono">{rec.data_sha256.slice(0, 16)}…</span>
         </p>
@@ -94,6 +99,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
                 <Th>Model</Th>
                 <Th>Parameter</Th>
                 <Th numeric>Value ± SE</Th>
+                <Th>Unit</Th>
                 <Th numeric>95 % CI</Th>
               </tr>
             </thead>
@@ -103,7 +109,8 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
                   <tr key={`${m.model}-${p.name}`}>
                     <Td>{m.model}</Td>
                     <Td className="font-mono">{p.name}</Td>
-                    <Td numeric>{p.value === null ? "no fit" : formatWithUncertainty(p.value, p.se)}{p.fixed ? " (fixed)" : ""}</Td>
+                    <Td numeric>{p.value === null ? (m.result.converged ? "not given" : "no fit") : formatWithUncertainty(p.value, p.se)}{p.held_from ? ` (from ${p.held_from})` : p.fixed ? " (fixed)" : ""}</Td>
+                    <Td data-unit={`${m.model}.${p.name}`}>{recordParameterUnit(m.model, p.name, units) || "—"}</Td>
                     <Td numeric>{p.ci95 ? `${formatNumber(p.ci95[0], 4)} … ${formatNumber(p.ci95[1], 4)}` : "—"}</Td>
                   </tr>
                 )),
@@ -131,7 +138,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
             {versions.map((v) => (
               <li key={v.id} className={`rounded-cell border px-3 py-2 text-sm ${v.id === rec.id ? "border-quartz-600 bg-quartz-100" : "border-ink-100 bg-paper-raised"}`}>
                 {outside ? <span className="font-semibold">Version {v.version}</span> : <Link href={`/fits/${v.id}`} className="font-semibold text-quartz-700 hover:underline">Version {v.version}</Link>}
-                <span className="text-ink-500"> · {v.created_at.slice(0, 16).replace("T", " ")} UTC · {v.author ?? "—"} · k = {formatWithUncertainty(v.k, v.k_se)} s⁻¹</span>
+                <span className="text-ink-500"> · {v.created_at.slice(0, 16).replace("T", " ")} UTC · {v.author ?? "—"} · k = {formatWithUncertainty(v.k, v.k_se)} {v.k_unit}</span>
                 {v.reason && <p className="mt-1">Why: {v.reason}</p>}
                 <ul className="mt-1 list-disc pl-5 text-ink-700">{v.changes.map((c) => <li key={c}>{c}</li>)}</ul>
               </li>

@@ -14,10 +14,12 @@ import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
 import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
-import { formatNumber, formatWithUncertainty, superscript } from "@/lib/format/number";
+import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { fetcher } from "@/lib/http/fetcher";
 import { firstOrderRate, localTangentRate } from "@/lib/kinetics/quantities";
 import { evaluateCriteria, type Criterion } from "@/lib/kinetics/criteria";
+import { FORMULA_FUNCTIONS } from "@/lib/kinetics/formula";
+import { DEFAULT_MODELS, fitUnits, MODELS, modelById, parameterUnit, perMinuteFactor } from "@/lib/kinetics/models";
 import { convertReading, fitSeriesWithOptions, type Conversion, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import type { FitOptions } from "@/lib/schemas/fits";
 import type { MethodForRun } from "@/lib/schemas/methods";
@@ -25,18 +27,7 @@ import { useSeriesFit } from "./use-fit";
 
 const num = parseDecimalField;
 
-const ALL_MODELS = [
-  { id: "linearized", label: "Linearized first order" },
-  { id: "first-order", label: "Nonlinear first order" },
-  { id: "zero-order", label: "Zero order" },
-  { id: "second-order", label: "Second order" },
-  { id: "biexponential", label: "Two exponentials" },
-  { id: "guggenheim", label: "Guggenheim" },
-  { id: "kezdy-swinbourne", label: "Kezdy–Swinbourne" },
-  { id: "formula", label: "Own formula" },
-] as const;
-const DEFAULT_MODELS = ["linearized", "first-order"];
-const CURVE_MODELS = new Set(["first-order", "zero-order", "second-order", "biexponential", "formula"]);
+const CURVE_MODELS = new Set(MODELS.filter((m) => m.family !== "straight-line").map((m) => m.id));
 
 interface Props {
   run: { id: number; name: string; wavelength_nm: number | null; path_length_cm: number | null; temperature_c: number | null };
@@ -143,8 +134,8 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
 
   const tScale = perMinute ? 60 : 1;
   const tLabel = perMinute ? "t (min)" : "t (s)";
-  const kUnit = perMinute ? `min${superscript(-1)}` : `s${superscript(-1)}`;
-  const yLabel = outcome.quantity !== "concentration" ? "A (AU)" : options.conversion?.kind === "calibration" ? `c (${options.conversion.unit})` : "c (mol L⁻¹)";
+  const yUnit = fitUnits(outcome.quantity, options.conversion).y;
+  const yLabel = outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`;
   const conv = (v: number) => (options.conversion ? convertReading(v, options.conversion) : v);
   const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
   const colour = solutionColour(run.wavelength_nm).hex;
@@ -199,7 +190,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     } catch {
       data = null;
     }
-    const yAt = p.ainf + (p.a0 - p.ainf) * Math.exp(-p.k * tAt);
+    const yAt = modelById("first-order")!.curve!(Float64Array.of(tAt), p)[0]!;
     return { tAt, model, data, line: { x: [tAt - span * 2, tAt + span * 2], y: [yAt + model * span * 2, yAt - model * span * 2] } };
   }, [rateAt, outcome, tScale, points]);
   const incIdx = points.t.map((_, i) => i).filter((i) => outcome.included[i]);
@@ -330,7 +321,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           </div>
         </section>
 
-        <ComparisonTable outcome={outcome} perMinute={perMinute} kUnit={kUnit} stale={stale} />
+        <ComparisonTable outcome={outcome} perMinute={perMinute} yUnit={yUnit} stale={stale} />
         <p className="text-xs text-ink-500">
           Fitted in your browser by {engineVersion} ({where === "worker" ? "in a background worker" : "on the page"}{ms !== null ? `, ${ms.toFixed(0)} ms` : ""}
           {stale ? ", re-fitting…" : ""}); saving re-runs the same engine on the server and stores its numbers. Shelf-life or release decisions built on
@@ -371,7 +362,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
         )}
         <fieldset className="rounded-cell bg-paper-raised p-4 shadow-lift">
           <legend className="px-1 text-sm font-semibold">Models</legend>
-          {ALL_MODELS.map((m) => (
+          {MODELS.map((m) => (
             <label key={m.id} className="flex items-center gap-2 py-0.5 text-sm">
               <input type="checkbox" checked={models.includes(m.id)} onChange={(e) => setModelList(e.target.checked ? [...models, m.id] : models.filter((x) => x !== m.id))} />
               {m.label}
@@ -379,7 +370,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           ))}
           {models.includes("formula") && (
             <div className="mt-2">
-              <Input label="Formula in t (seconds)" value={formula} onChange={(e) => setFormula(e.target.value)} placeholder="b1*(1-exp(-b2*t)) + b3" hint="Standard notation: ^ for powers, exp, atan, pi. Every other name is a parameter." />
+              <Input label="Formula in t (seconds)" value={formula} onChange={(e) => setFormula(e.target.value)} placeholder="b1*(1-exp(-b2*t)) + b3" hint={`Standard notation: + − * / ^ and brackets, ${FORMULA_FUNCTIONS.join(", ")}, pi. Every other name is a parameter.`} />
             </div>
           )}
           <div className="mt-2">
@@ -548,8 +539,9 @@ const STAT_ROWS: Array<[string, (m: ModelRow, perMinute: boolean) => string]> = 
   ["t90", (m, pm) => inTime(m.t90, pm)],
 ];
 
-function ComparisonTable({ outcome, perMinute, kUnit, stale }: { outcome: Outcome; perMinute: boolean; kUnit: string; stale: boolean }) {
-  const scaleOf = (name: string) => (perMinute && (name === "k" || /^k\d$/.test(name)) ? 60 : 1);
+function ComparisonTable({ outcome, perMinute, yUnit, stale }: { outcome: Outcome; perMinute: boolean; yUnit: string; stale: boolean }) {
+  const units = { y: yUnit, t: perMinute ? "min" : "s" };
+  const scale = (model: string, name: string) => (perMinute ? perMinuteFactor(model, name) : 1);
   const paramNames = [...new Set(outcome.models.flatMap((m) => m.result.parameters.map((p) => p.name)))];
   return (
     <section className={`rounded-cell bg-paper-raised p-4 shadow-lift ${stale ? "opacity-70" : ""}`} aria-label="Model comparison" aria-busy={stale}>
@@ -585,15 +577,17 @@ function ComparisonTable({ outcome, perMinute, kUnit, stale }: { outcome: Outcom
               <tr key={name} className="border-b border-ink-100 align-top">
                 <th scope="row" className="py-1.5 pr-4 text-left font-mono text-xs font-normal text-ink-700">
                   {name}
-                  {scaleOf(name) !== 1 || name === "k" ? ` (${kUnit})` : ""}
                 </th>
                 {outcome.models.map((m) => {
                   const p = m.result.parameters.find((q) => q.name === name);
+                  const f = scale(m.model, name);
+                  const unit = parameterUnit(m.model, name, units);
                   return (
-                    <td key={m.model} className="num pr-4 font-mono text-xs" data-param={name}>
-                      {!p ? "" : p.value === null ? "—" : formatWithUncertainty(p.value * scaleOf(name), p.se === null ? null : p.se * scaleOf(name))}
-                      {p?.se_with_calibration !== undefined && <span className="block text-ink-500">SE with calibration ±{formatNumber(p.se_with_calibration * scaleOf(name), 3)}</span>}
-                      {p?.fixed ? " (fixed)" : p?.ci95 ? <span className="block text-ink-500">95 % CI {formatNumber(p.ci95[0] * scaleOf(name), 4)} … {formatNumber(p.ci95[1] * scaleOf(name), 4)}</span> : null}
+                    <td key={m.model} className="num pr-4 font-mono text-xs" data-model={m.model} data-param={name}>
+                      {!p ? "" : p.value === null ? "—" : formatWithUncertainty(p.value * f, p.se === null ? null : p.se * f)}
+                      {p && p.value !== null && unit ? <span data-unit> {unit}</span> : null}
+                      {p?.se_with_calibration !== undefined && <span className="block text-ink-500">SE with calibration ±{formatNumber(p.se_with_calibration * f, 3)}</span>}
+                      {p?.held_from ? ` (from ${modelById(p.held_from)?.label.toLowerCase() ?? p.held_from})` : p?.fixed ? " (fixed)" : p?.ci95 ? <span className="block text-ink-500">95 % CI {formatNumber(p.ci95[0] * f, 4)} … {formatNumber(p.ci95[1] * f, 4)}</span> : null}
                     </td>
                   );
                 })}

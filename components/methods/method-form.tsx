@@ -8,18 +8,13 @@ import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
 import type { Criterion } from "@/lib/kinetics/criteria";
+import { DEFAULT_MODELS, MODELS } from "@/lib/kinetics/models";
 import type { MethodDefinition } from "@/lib/schemas/methods";
 
 const num = parseDecimalField;
 
-const MODELS = [
-  { id: "first-order", label: "Nonlinear first order" },
-  { id: "linearized", label: "Linearized first order" },
-  { id: "zero-order", label: "Zero order" },
-  { id: "second-order", label: "Second order" },
-  { id: "biexponential", label: "Two exponentials" },
-  { id: "formula", label: "The method's own formula" },
-] as const;
+/** Models a method can name: all but those needing a pairing interval, which a method does not record. */
+const METHOD_MODELS = MODELS.filter((m) => !m.needsInterval).map((m) => ({ id: m.id, label: m.family === "formula" ? "The method's own formula" : m.label }));
 
 type Kind = Criterion["kind"];
 const CRITERIA: Array<{ kind: Kind; name: string; label: string; fields: Array<{ key: "value" | "min" | "max"; label: string; fallback: string; scale?: number }> }> = [
@@ -52,7 +47,7 @@ export function MethodForm({
   const [calibrationId, setCalibrationId] = useState(initial?.concentration.kind === "calibration" ? String(initial.concentration.calibration_id) : String(calibrations[0]?.id ?? ""));
   const [blankKind, setBlankKind] = useState<MethodDefinition["blank"]["kind"]>(initial?.blank.kind ?? "none");
   const [blankValue, setBlankValue] = useState(initial?.blank.kind === "value" ? String(initial.blank.value) : "");
-  const [models, setModels] = useState<string[]>(initial?.models ?? ["first-order", "linearized"]);
+  const [models, setModels] = useState<string[]>(initial?.models ?? DEFAULT_MODELS);
   const [weighting, setWeighting] = useState<"none" | "log">(initial?.weighting ?? "none");
   const [from, setFrom] = useState(initial?.window.from_s != null ? String(initial.window.from_s) : "");
   const [to, setTo] = useState(initial?.window.to_s != null ? String(initial.window.to_s) : "");
@@ -172,7 +167,7 @@ export function MethodForm({
         <legend className="px-1 text-sm font-semibold">How runs are fitted</legend>
         <div>
           <p className="text-sm font-semibold text-ink-700">Models (the first is the one the criteria judge)</p>
-          {MODELS.map((m) => (
+          {METHOD_MODELS.map((m) => (
             <label key={m.id} className="flex items-center gap-2 py-0.5 text-sm">
               <input type="checkbox" checked={models.includes(m.id)} onChange={(e) => setModels(e.target.checked ? [...models, m.id] : models.filter((x) => x !== m.id))} />
               {m.label}

@@ -11,7 +11,7 @@ import { useToast } from "@/components/ui/toast";
 import { formatNumber, formatSeconds, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { KELVIN_OFFSET } from "@/lib/kinetics/constants";
 import { halfLife, t90 } from "@/lib/kinetics/quantities";
-import { celsiusToKelvin, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
+import { celsiusToKelvin, eyringLine, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
 import type { StudyRecord } from "@/lib/studies";
 
 type TempResults = {
@@ -178,7 +178,7 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
                 mode: "lines",
                 name: "line",
                 x: [x(Math.max(...members.map((m) => m.T))), x(Math.min(...members.map((m) => m.T)))],
-                y: [Math.max(...members.map((m) => m.T)), Math.min(...members.map((m) => m.T))].map((T) => Math.log(1.380649e-23 / 6.62607015e-34) + r.eyring.dS.value / 8.314462618 - r.eyring.dH.value / (8.314462618 * T)),
+                y: [Math.max(...members.map((m) => m.T)), Math.min(...members.map((m) => m.T))].map((T) => eyringLine(r.eyring, T)),
                 line: { color: "#d55e00" },
               },
             ] as never}

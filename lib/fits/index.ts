@@ -8,7 +8,7 @@ import { canonicalJson } from "./canonical";
 import { AppError } from "@/lib/errors";
 import { can } from "@/lib/permissions";
 import { getRun } from "@/db/queries/runs";
-import { ENGINE_VERSION, evaluateCriteria, fitSeriesWithOptions, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
+import { ENGINE_VERSION, PRIMARY_MODEL, fitUnits, parameterUnit, evaluateCriteria, type UnitContext, fitSeriesWithOptions, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
 import { calibrationConversion, getCalibration, methodForRun } from "@/lib/methods";
 import { readSeries } from "@/lib/runs";
 import type { FitOptions, SaveFitInput } from "@/lib/schemas/fits";
@@ -30,8 +30,18 @@ function storedResults(out: SeriesFitOutcome): StoredResults {
   return { ...rest, excluded_indices: included.flatMap((inc, i) => (inc ? [] : [i])) };
 }
 
+/** The units of a record's values (AU, mol L⁻¹ or the calibration's unit; times in s). */
+export function recordUnits(results: Pick<StoredResults, "quantity">, options: Pick<FitOptions, "conversion">): UnitContext {
+  return fitUnits(results.quantity, options.conversion);
+}
+
+/** A parameter's unit on a record ("" for none known, as for own formulas). */
+export function recordParameterUnit(model: string, param: string, units: UnitContext): string {
+  return parameterUnit(model, param, units) ?? "";
+}
+
 export function primaryOf(results: StoredResults) {
-  const m = results.models.find((x) => x.model === "first-order") ?? results.models[0];
+  const m = results.models.find((x) => x.model === PRIMARY_MODEL) ?? results.models[0];
   const k = m?.result.parameters.find((p) => p.name === "k");
   return { model: m?.model ?? "none", k: k?.value ?? null, se: k?.se ?? null };
 }
@@ -180,8 +190,14 @@ export async function versionsOfRecord(db: Knex, labId: number, recordId: number
     content_hash: v.content_hash,
     k: v.k_value,
     k_se: v.k_se,
+    /** k's unit under this version's primary model and conversion. */
+    k_unit: recordParameterUnit(v.primary_model, "k", fitUnits(parseResultsQuantity(v.results), (JSON.parse(v.options) as FitOptions).conversion)),
     changes: i === 0 ? ["first version"] : describeChanges(JSON.parse(versions[i - 1]!.options) as FitOptions, JSON.parse(v.options) as FitOptions),
   }));
+}
+
+function parseResultsQuantity(results: string): "absorbance" | "concentration" {
+  return (JSON.parse(results) as { quantity?: string }).quantity === "concentration" ? "concentration" : "absorbance";
 }
 
 /** What changed between two versions' options, in plain words. */
@@ -248,12 +264,13 @@ export async function fitParametersCsv(db: Knex, labId: number, id: number): Pro
   const rec = await getFitRecord(db, labId, id);
   const lines = [
     `# ${csvCell(rec.title)} v${rec.version}; engine ${rec.engine_version}; content hash ${rec.content_hash}; times in s, rate constants per second`,
-    "model,parameter,value,se,ci95_low,ci95_high,fixed,n,dof,ssr,r2,aicc,akaike_weight,runs,durbin_watson,converged,message",
+    "model,parameter,unit,value,se,ci95_low,ci95_high,fixed,n,dof,ssr,r2,aicc,akaike_weight,runs,durbin_watson,converged,message",
   ];
+  const units = recordUnits(rec.results, rec.options);
   for (const m of rec.results.models)
     for (const p of m.result.parameters)
       lines.push(
-        [m.model, p.name, p.value, p.se, p.ci95?.[0], p.ci95?.[1], p.fixed ? 1 : 0, m.result.n, m.result.dof, m.result.ssr, m.result.r2, m.result.aicc, m.akaikeWeight, m.result.runs, m.result.durbin_watson, m.result.converged ? 1 : 0, m.result.message]
+        [m.model, p.name, recordParameterUnit(m.model, p.name, units), p.value, p.se, p.ci95?.[0], p.ci95?.[1], p.fixed ? 1 : 0, m.result.n, m.result.dof, m.result.ssr, m.result.r2, m.result.aicc, m.akaikeWeight, m.result.runs, m.result.durbin_watson, m.result.converged ? 1 : 0, m.result.message]
           .map(csvCell)
           .join(","),
       );

@@ -1,5 +1,6 @@
 // A method's acceptance criteria, evaluated on one fit: each criterion passes, fails, or cannot be evaluated (which
 // counts as not passed: a criterion nobody could check has not been met).
+import { PRIMARY_MODEL } from "./models";
 import type { SeriesFitOutcome } from "./workspace";
 
 export type Criterion =
@@ -47,10 +48,10 @@ export function describeCriterion(c: Criterion): string {
   }
 }
 
-/** The model a method's criteria judge: the first of its models in the outcome, else the first-order fit, else the first. */
+/** The model a method's criteria judge: the first of its models in the outcome, else the primary model's fit, else the first. */
 export function judgedModel(outcome: Pick<SeriesFitOutcome, "models">, preferred: readonly string[]): string | null {
   for (const m of preferred) if (outcome.models.some((x) => x.model === m)) return m;
-  return outcome.models.find((x) => x.model === "first-order")?.model ?? outcome.models[0]?.model ?? null;
+  return outcome.models.find((x) => x.model === PRIMARY_MODEL)?.model ?? outcome.models[0]?.model ?? null;
 }
 
 export function evaluateCriteria(outcome: Pick<SeriesFitOutcome, "models" | "n" | "reading_range">, criteria: readonly Criterion[], preferred: readonly string[] = []): CriteriaEvaluation {

@@ -192,14 +192,18 @@ export function fitNonlinear(modelName: string, model: ModelFunction, tIn: Array
       for (let b = 0; b < pf; b++) row.push(cov[a * pf + b]! / Math.sqrt(cov[a * pf + a]! * cov[b * pf + b]!));
       correlation.push(row);
     }
+    const apart: string[] = [];
     for (let a = 0; a < pf; a++)
       for (let b = a + 1; b < pf; b++) {
         const rho = correlation[a]![b]!;
-        if (Math.abs(rho) >= INDISTINGUISHABLE)
-          warnings.push(`${correlationNames[a]} and ${correlationNames[b]} cannot be told apart by these data (r = ${rho.toFixed(4)}): a change in one is matched by the other, so neither is determined on its own. Fix one at a measured value, record for longer, or choose a simpler model.`);
+        if (Math.abs(rho) >= INDISTINGUISHABLE) apart.push(`${correlationNames[a]} and ${correlationNames[b]} (r = ${rho.toFixed(4)})`);
         else if (Math.abs(rho) >= CORRELATION_WARNING)
           warnings.push(`${correlationNames[a]} and ${correlationNames[b]} are strongly correlated (r = ${rho.toFixed(3)}): their individual uncertainties are larger than they look.`);
       }
+    if (apart.length)
+      warnings.unshift(
+        `${apart.join(", ")} cannot be told apart by these data: a change in one is matched by the other, so neither is determined on its own. Fix one at a measured value, record for longer, or choose a simpler model.`,
+      );
   } else {
     const pair = mostAlike(problem, lm.x, lm.freeIndex, n);
     if (pair) warnings.push(`${model.params[pair[0]]} and ${model.params[pair[1]]} cannot be told apart by these data: no standard errors can be given. Fix one at a measured value or choose a simpler model.`);

@@ -213,3 +213,8 @@ export function arrheniusBand(points: readonly RatePoint[], temperaturesK: reado
     return { temperatureK: T, lnK: p.value, low: p.value - line.tCrit * p.seMean, high: p.value + line.tCrit * p.seMean };
   });
 }
+
+/** ln(k/T) on the Eyring line at a temperature (K): ln(kB/h) + ΔS‡/R − ΔH‡/(R·T), for plots and reports. */
+export function eyringLine(eyring: { dH: { value: number }; dS: { value: number } }, temperatureK: number): number {
+  return LN_KB_OVER_H + eyring.dS.value / GAS_R - eyring.dH.value / (GAS_R * temperatureK);
+}

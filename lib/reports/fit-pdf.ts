@@ -4,7 +4,7 @@
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
-import { computeFit, getFitRecord, versionsOfRecord } from "@/lib/fits";
+import { computeFit, getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { reviewStatus } from "@/lib/reviews";
 import { getRunDetail } from "@/lib/runs";
@@ -49,7 +49,8 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   line(`Record content hash ${rec.content_hash} · ${rec.engine_version}`, 8, "mono");
 
   heading(`Rate constant (${rec.primary.model})`);
-  line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} s⁻¹`, 14, "mono");
+  const units = recordUnits(rec.results, rec.options);
+  line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} ${recordParameterUnit(rec.primary.model, "k", units)}`, 14, "mono");
 
   // The plot: data (included dots, excluded crosses) and the nonlinear first-order curve, drawn as vectors.
   const box = { x: 60, y: doc.y + 8, w: 470, h: 170 };
@@ -86,7 +87,7 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   for (const m of rec.results.models) {
     line(`${m.model}: n ${m.result.n}, dof ${m.result.dof}, SSR ${formatNumber(m.result.ssr, 4)}, r² ${m.result.r2?.toFixed(5) ?? "—"}, AICc ${m.result.aicc?.toFixed(2) ?? "—"}, runs ${m.result.runs ?? "—"}, Durbin–Watson ${m.result.durbin_watson?.toFixed(2) ?? "—"}`, 9, "bold");
     for (const p of m.result.parameters)
-      line(`   ${p.name} = ${p.value === null ? "no fit" : formatWithUncertainty(p.value, p.se)}${p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}${p.se_with_calibration !== undefined ? `   SE with calibration ${formatNumber(p.se_with_calibration, 3)}` : ""}`, 9, "mono");
+      line(`   ${p.name} = ${p.value === null ? (m.result.converged ? "not given" : "no fit") : `${formatWithUncertainty(p.value, p.se)} ${recordParameterUnit(m.model, p.name, units)}`.trimEnd()}${p.held_from ? ` (from ${p.held_from})` : p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}${p.se_with_calibration !== undefined ? `   SE with calibration ${formatNumber(p.se_with_calibration, 3)}` : ""}`, 9, "mono");
     if (!m.result.converged) line(`   ${m.result.message}`, 9);
     for (const w of m.result.warnings) line(`   ${w}`, 8);
   }

@@ -1,7 +1,8 @@
 import { z } from "zod";
-import { MODEL_NAMES } from "@/lib/kinetics/fit";
+import { MODEL_IDS } from "@/lib/kinetics/models";
 
-export const FIT_MODELS = [...MODEL_NAMES, "formula"] as const;
+/** Every model of the engine's model table, own formula included. */
+export const FIT_MODELS = MODEL_IDS;
 
 export const fitOptionsSchema = z.object({
   models: z.array(z.enum(FIT_MODELS)).min(1).max(8),

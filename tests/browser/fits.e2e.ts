@@ -29,8 +29,32 @@ describe("fitting workspace", () => {
     // The demo runs follow the demo method, whose models (first-order, then linearized) the page starts from.
     await expect(table.locator("th[data-model]").evaluateAll((rows) => rows.map((r) => r.getAttribute("data-model")))).resolves.toEqual(["first-order", "linearized"]);
     await page.getByRole("figure", { name: "Residuals per model" }).locator(".main-svg").first().waitFor();
-    await page.getByText(/linearized and nonlinear first-order k differ by/).waitFor();
+    await page.getByText(/linearized and nonlinear first-order k disagree/).waitFor();
     await page.screenshot({ path: path.join(artifacts, "fit-workspace.png"), fullPage: true });
+  });
+
+  it("shows every parameter of every model with the unit the model table gives it", async () => {
+    await page.goto(`${baseURL}/runs`);
+    await page.getByRole("link", { name: /corvane-blue-25C-repeat-drift/ }).click();
+    await page.getByTestId("fit-link").first().click();
+    await page.getByTestId("comparison").waitFor();
+    const url = new URL(page.url());
+    url.searchParams.set("models", "first-order,zero-order,second-order,biexponential,linearized");
+    await page.goto(url.toString());
+    const unitOf = (model: string, param: string) => page.locator(`td[data-model="${model}"][data-param="${param}"] [data-unit]`).first();
+    // Common practice (IUPAC Green Book 2.12): order-n rate constants in concentration^(1−n) time⁻¹; here absorbance.
+    const expected: Array<[string, string, string]> = [
+      ["first-order", "k", "s⁻¹"],
+      ["first-order", "a0", "AU"],
+      ["first-order", "ainf", "AU"],
+      ["zero-order", "k", "AU s⁻¹"],
+      ["second-order", "k", "AU⁻¹ s⁻¹"],
+      ["biexponential", "k1", "s⁻¹"],
+      ["biexponential", "a2", "AU"],
+      ["linearized", "k", "s⁻¹"],
+    ];
+    for (const [model, param, unit] of expected) await expect.poll(async () => (await unitOf(model, param).textContent())?.trim(), { message: `${model} ${param}` }).toBe(unit);
+    await page.screenshot({ path: path.join(artifacts, "fit-workspace-units.png"), fullPage: true });
   });
 
   it("excludes a point with a reason, fixes A∞, saves version 2 and shows what changed", async () => {
@@ -59,7 +83,9 @@ describe("fitting workspace", () => {
     const id = url.pathname.split("/").pop();
     const csv = await (await page.request.get(`${baseURL}/api/fits/${id}/export?kind=parameters`)).text();
     const row = csv.split("\n").find((l) => l.startsWith("first-order,k,"))!.split(",");
-    expect(pageK).toContain(formatWithUncertainty(Number(row[2]), Number(row[3])));
+    expect(row[2]).toBe("s⁻¹");
+    expect(pageK).toContain(formatWithUncertainty(Number(row[3]), Number(row[4])));
+    expect(pageK).toContain("s⁻¹");
     const data = await page.request.get(`${baseURL}/api/fits/${id}/export?kind=data`);
     expect(data.headers()["content-disposition"]).toMatch(/attachment; filename="fit-\d+-v2-data\.csv"/);
     expect(await data.text()).toMatch(/,0,air bubble seen in cell 1,/);

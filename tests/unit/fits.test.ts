@@ -94,7 +94,7 @@ describe("saving fits", () => {
     expect(rows[1]).toBe("t_s,y,included,exclusion_reason,fitted_first-order,residual_first-order");
     expect(rows[4]).toBe("180,0.526,0,bubble in the cell,,");
     const params = await getJson(`/api/fits/${v2.body.id}/export?kind=parameters`, await import("@/app/api/fits/[id]/export/route"), { id: String(v2.body.id) });
-    expect(params.body).toMatch(/^first-order,k,0\.00\d+/m);
+    expect(params.body).toMatch(/^first-order,k,s⁻¹,0\.00\d+/m);
   });
 
   it("refuses bad options with the field named", async () => {
@@ -114,6 +114,22 @@ describe("saving fits", () => {
     expect(rec.status).toBe(404);
     const save = await postFit({ runId, seriesId, options: { models: ["first-order"] } });
     expect(save.status).toBe(404);
+  });
+});
+
+describe("own formulas are the method developer's permission", () => {
+  const options = { models: ["formula"], formula: "a*exp(-b*t) + c", starts: { a: 1, b: 0.005, c: 0.05 } };
+  it("an analyst posting an own formula gets 403 and nothing is stored", async () => {
+    const before = (await db("fits").count({ n: "*" }))[0]!.n;
+    const r = await postFit({ runId, seriesId, title: "own formula", options });
+    expect(r.status).toBe(403);
+    expect(r.body.error.message).toMatch(/open to method developers/);
+    expect((await db("fits").count({ n: "*" }))[0]!.n).toBe(before);
+  });
+  it("a method developer may", async () => {
+    session.current = await signInAs(db, "method_developer");
+    const r = await postFit({ runId, seriesId, title: "own formula", options });
+    expect(r.status).toBe(201);
   });
 });
 

@@ -7,7 +7,7 @@ import { guggenheim } from "./guggenheim";
 import { kezdySwinbourne } from "./kezdy-swinbourne";
 import { linearized } from "./linearized";
 import { secondOrder } from "./second-order";
-import type { ModelDescriptor } from "./types";
+import { timeScale, unitOf, type ModelDescriptor, type UnitContext } from "./types";
 import { zeroOrder } from "./zero-order";
 
 export const MODELS: readonly ModelDescriptor[] = [linearized, firstOrder, zeroOrder, secondOrder, biexponential, guggenheim, kezdySwinbourne, formulaModel];
@@ -27,4 +27,16 @@ export function modelById(id: string): ModelDescriptor | undefined {
 
 export { firstOrderGridStart } from "./starts";
 export { FitSpecError, noCurvature } from "./nonlinear";
-export { timeScale, unitOf, type Dimension, type FitSpec, type ModelDescriptor, type NonlinearModel, type ParameterSpec, type UnitContext } from "./types";
+export { fitUnits, timeScale, unitOf, type Dimension, type FitSpec, type ModelDescriptor, type NonlinearModel, type ParameterSpec, type UnitContext } from "./types";
+
+/** A parameter's unit under the model table ("" dimensionless; null when unknown, as for own formulas). */
+export function parameterUnit(modelId: string, param: string, ctx: UnitContext): string | null {
+  const spec = modelById(modelId)?.params.find((p) => p.name === param);
+  return spec ? unitOf(spec.dimension, ctx) : null;
+}
+
+/** The factor turning a per-second value of this parameter into per-minute (60 for rates, 1 otherwise). */
+export function perMinuteFactor(modelId: string, param: string): number {
+  const spec = modelById(modelId)?.params.find((p) => p.name === param);
+  return spec ? timeScale(spec.dimension, 60) : 1;
+}

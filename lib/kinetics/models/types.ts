@@ -101,3 +101,9 @@ export function unitOf(dimension: Dimension, ctx: UnitContext): string | null {
 export function timeScale(dimension: Dimension, secondsPerUnit: number): number {
   return dimension === "1/t" || dimension === "y/t" || dimension === "1/(y t)" ? secondsPerUnit : 1;
 }
+
+/** The units of a fit's values: absorbance (AU), Beer–Lambert concentration (mol L⁻¹) or a calibration's unit. */
+export function fitUnits(quantity: "absorbance" | "concentration", conversion?: { kind: string; unit?: string } | null, t = "s"): UnitContext {
+  if (quantity !== "concentration") return { y: "AU", t };
+  return { y: conversion?.kind === "calibration" && conversion.unit ? conversion.unit : "mol L⁻¹", t };
+}
