@@ -1,9 +1,11 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine` or `-- ingest` runs one part.
+// `npm run bench -- engine`, `-- formula` or `-- ingest` runs one part.
 import { benchEngine } from "./engine";
+import { benchFormula } from "./formula";
 import { benchIngest } from "./ingest";
 
 const only = process.argv[2];
 console.log(`Halflight benchmarks on Node ${process.version}, ${process.platform}/${process.arch}`);
 if (!only || only === "engine") benchEngine();
+if (!only || only === "formula") benchFormula();
 if (!only || only === "ingest") benchIngest();

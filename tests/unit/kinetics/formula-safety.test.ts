@@ -3,18 +3,9 @@ import { describe, expect, it } from "vitest";
 import { fitKinetics } from "@/lib/kinetics";
 import { compileFormula, FormulaError, MAX_FORMULA_LENGTH } from "@/lib/kinetics/formula";
 import { runPython } from "../../helpers/python";
+import { PATHOLOGICAL_FORMULAS } from "../../helpers/formulas";
 import { seededRandom } from "../../helpers/random";
 
-/** Formulas that once took seconds to minutes (symbolic simplification, constant sub-expressions) or are simply big. */
-export const PATHOLOGICAL_FORMULAS: Array<{ label: string; formula: string }> = [
-  { label: "47 characters of +t terms", formula: "a*t" + "+t".repeat(22) },
-  { label: "323 characters of +t terms", formula: "a*t" + "+t".repeat(160) },
-  { label: "2,000 characters of +t terms", formula: "a*t" + "+t".repeat(998) },
-  { label: "a long product", formula: "a*" + Array.from({ length: 300 }, () => "t").join("*") },
-  { label: "nested exponentials", formula: "a*" + "exp(".repeat(38) + "-k*t" + ")".repeat(38) },
-  { label: "many parameters in one product", formula: Array.from({ length: 12 }, (_, i) => `b${i + 1}`).join("*") + "*t" },
-  { label: "powers of powers", formula: "a*t" + "^t".repeat(200) },
-];
 
 describe("formulas are compiled or refused without delay (the time is measured by the bench, not here)", () => {
   for (const { label, formula } of PATHOLOGICAL_FORMULAS) {
