@@ -420,7 +420,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           <Input label={`At t (${perMinute ? "min" : "s"})`} inputMode="decimal" value={rateAt} onChange={(e) => setRateAt(e.target.value)} hint="−dy/dt from the nonlinear first-order fit, and a local straight line through the data (±5 % of the span)." />
           {rate && (
             <p className="num text-sm" data-testid="rate">
-              model: {formatNumber(rate.model * (perMinute ? 60 : 1), 4)} {outcome.quantity === "concentration" ? "mol L⁻¹" : "AU"} {perMinute ? "min⁻¹" : "s⁻¹"}
+              model: {formatNumber(rate.model * (perMinute ? 60 : 1), 4)} {yUnit} {perMinute ? "min⁻¹" : "s⁻¹"}
               <br />
               data: {rate.data ? `${formatWithUncertainty(rate.data.rate * (perMinute ? 60 : 1), rate.data.se * (perMinute ? 60 : 1))} (${rate.data.points} points)` : "too few points near this time"}
             </p>

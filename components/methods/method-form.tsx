@@ -8,7 +8,7 @@ import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
 import type { Criterion } from "@/lib/kinetics/criteria";
-import { DEFAULT_MODELS, MODELS } from "@/lib/kinetics/models";
+import { DEFAULT_METHOD_MODELS, MODELS } from "@/lib/kinetics/models";
 import type { MethodDefinition } from "@/lib/schemas/methods";
 
 const num = parseDecimalField;
@@ -47,7 +47,7 @@ export function MethodForm({
   const [calibrationId, setCalibrationId] = useState(initial?.concentration.kind === "calibration" ? String(initial.concentration.calibration_id) : String(calibrations[0]?.id ?? ""));
   const [blankKind, setBlankKind] = useState<MethodDefinition["blank"]["kind"]>(initial?.blank.kind ?? "none");
   const [blankValue, setBlankValue] = useState(initial?.blank.kind === "value" ? String(initial.blank.value) : "");
-  const [models, setModels] = useState<string[]>(initial?.models ?? DEFAULT_MODELS);
+  const [models, setModels] = useState<string[]>(initial?.models ?? DEFAULT_METHOD_MODELS);
   const [weighting, setWeighting] = useState<"none" | "log">(initial?.weighting ?? "none");
   const [from, setFrom] = useState(initial?.window.from_s != null ? String(initial.window.from_s) : "");
   const [to, setTo] = useState(initial?.window.to_s != null ? String(initial.window.to_s) : "");

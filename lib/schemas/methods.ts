@@ -2,7 +2,7 @@
 import { z } from "zod";
 import type { Criterion } from "@/lib/kinetics/criteria";
 import type { Conversion } from "@/lib/kinetics/workspace";
-import { DEFAULT_MODELS } from "@/lib/kinetics/models";
+import { DEFAULT_METHOD_MODELS } from "@/lib/kinetics/models";
 import { FIT_MODELS } from "./fits";
 
 const reason = z.string().trim().min(3, "Say why (at least 3 characters).").max(1000);
@@ -44,7 +44,7 @@ export const methodDefinitionSchema = z
         z.object({ kind: z.literal("value"), value: z.number().finite() }),
       ])
       .default({ kind: "none" }),
-    models: z.array(z.enum(FIT_MODELS)).min(1).max(8).default(DEFAULT_MODELS),
+    models: z.array(z.enum(FIT_MODELS)).min(1).max(8).default(DEFAULT_METHOD_MODELS),
     weighting: z.enum(["none", "log"]).default("none"),
     window: z.object({ from_s: z.number().finite().min(0).nullable().default(null), to_s: z.number().finite().positive().nullable().default(null) }).default({ from_s: null, to_s: null }),
     custom_models: z.array(customModelSchema).max(10).default([]),

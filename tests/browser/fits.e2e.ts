@@ -53,8 +53,12 @@ describe("fitting workspace", () => {
       ["biexponential", "a2", "AU"],
       ["linearized", "k", "s⁻¹"],
     ];
-    for (const [model, param, unit] of expected) await expect.poll(async () => (await unitOf(model, param).textContent())?.trim(), { message: `${model} ${param}` }).toBe(unit);
+    // The page starts per minute; then per second, as stored.
+    for (const [model, param, unit] of expected)
+      await expect.poll(async () => (await unitOf(model, param).textContent())?.trim(), { message: `${model} ${param}` }).toBe(unit.replace("s⁻¹", "min⁻¹"));
     await page.screenshot({ path: path.join(artifacts, "fit-workspace-units.png"), fullPage: true });
+    await page.getByLabel("Show times in minutes and k per minute (stored in seconds)").uncheck();
+    for (const [model, param, unit] of expected) await expect.poll(async () => (await unitOf(model, param).textContent())?.trim(), { message: `${model} ${param}` }).toBe(unit);
   });
 
   it("excludes a point with a reason, fixes A∞, saves version 2 and shows what changed", async () => {

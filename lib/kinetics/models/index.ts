@@ -16,8 +16,10 @@ export const MODELS: readonly ModelDescriptor[] = [linearized, firstOrder, zeroO
 export const MODEL_IDS = MODELS.map((m) => m.id) as [string, ...string[]];
 /** The built-in models (no own formula): the CLI's --model names. */
 export const MODEL_NAMES = MODELS.filter((m) => m.family !== "formula").map((m) => m.id);
-/** What a new fit and a new method start with. */
+/** What a new fit starts with. */
 export const DEFAULT_MODELS = ["linearized", "first-order"];
+/** What a new method starts with: its first model is the one its criteria judge, the nonlinear fit. */
+export const DEFAULT_METHOD_MODELS = ["first-order", "linearized"];
 /** The model a record's headline rate constant and a method's criteria fall back to. */
 export const PRIMARY_MODEL = "first-order";
 
