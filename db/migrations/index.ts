@@ -9,6 +9,7 @@ import * as reviews from "./20261202070000_reviews";
 import * as sharing from "./20261202080000_sharing";
 import * as validation from "./20261202090000_validation";
 import * as methods from "./20261202100000_methods";
+import * as integrity from "./20261202110000_integrity";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
@@ -19,4 +20,5 @@ export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<
   { name: "20261202080000_sharing", ...sharing },
   { name: "20261202090000_validation", ...validation },
   { name: "20261202100000_methods", ...methods },
+  { name: "20261202110000_integrity", ...integrity },
 ];

@@ -51,3 +51,29 @@ export async function submittedFits(db: Db, labId: number) {
     .orderBy("e.at", "asc")
     .select("f.id", "f.title", "f.version", "f.k_value", "f.k_se", "f.author_id", "r.name as run_name", "e.at as submitted_at", "u.display_name as submitted_by");
 }
+
+/**
+ * Moves a record version's review state from one of `from` to `to` in one conditional statement (compare-and-set):
+ * true when this call made the move, false when the state was not one of `from` (another decision came first).
+ * "draft" has no row: the first move inserts one, and the primary key refuses a second, concurrent first move.
+ */
+export async function moveReviewState(db: Db, labId: number, objectType: string, objectId: number, from: readonly string[], to: string): Promise<boolean> {
+  const changed = await db("review_heads")
+    .where({ object_type: objectType, object_id: objectId, lab_id: labId })
+    .whereIn("state", from as string[])
+    .update({ state: to, seq: db.raw("seq + 1") });
+  if (changed === 1) return true;
+  if (!from.includes("draft")) return false;
+  const inserted = await db.raw(
+    `INSERT INTO review_heads (object_type, object_id, lab_id, state, seq) SELECT ?, ?, ?, ?, 1
+     WHERE NOT EXISTS (SELECT 1 FROM review_heads WHERE object_type = ? AND object_id = ?)`,
+    [objectType, objectId, labId, to, objectType, objectId],
+  );
+  return rowsAffected(inserted) === 1;
+}
+
+/** Rows changed by a raw INSERT/UPDATE, for better-sqlite3 (changes) and pg (rowCount). */
+function rowsAffected(result: unknown): number {
+  const r = result as { changes?: number; rowCount?: number };
+  return Number(r.changes ?? r.rowCount ?? 0);
+}

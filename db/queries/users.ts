@@ -30,13 +30,28 @@ export async function findUserById(db: Db, id: number): Promise<DbUserRow | unde
   return db("users").where({ id }).first();
 }
 
-/** Counts one more failed sign-in and, when given, sets the lock; returns the new count. */
-export async function recordFailedSignIn(db: Db, userId: number, lockedUntil: string | null): Promise<number> {
-  await db("users")
-    .where({ id: userId })
-    .update({ failed_sign_ins: db.raw("failed_sign_ins + 1"), ...(lockedUntil ? { locked_until: lockedUntil } : {}) });
-  const row = await db("users").where({ id: userId }).first("failed_sign_ins");
-  return Number(row?.failed_sign_ins ?? 0);
+/**
+ * Counts a password attempt before the password is checked, in one transaction: a lock that has run out is cleared
+ * first; then the counter goes up by one. Returns the count after this attempt and the lock as it stands.
+ */
+export async function reservePasswordAttempt(db: Db, userId: number, nowIso: string): Promise<{ count: number; lockedUntil: string | null }> {
+  const run = async (trx: Db) => {
+    await trx("users").where({ id: userId }).whereNotNull("locked_until").where("locked_until", "<=", nowIso).update({ failed_sign_ins: 0, locked_until: null });
+    await trx("users").where({ id: userId }).update({ failed_sign_ins: trx.raw("failed_sign_ins + 1") });
+    const row = (await trx("users").where({ id: userId }).first("failed_sign_ins", "locked_until")) as { failed_sign_ins: number; locked_until: string | null } | undefined;
+    return { count: Number(row?.failed_sign_ins ?? 0), lockedUntil: row?.locked_until ?? null };
+  };
+  return db.isTransaction ? run(db) : db.transaction(run);
+}
+
+/** Sets the lock unless one is set; true when this call set it. */
+export async function lockAccount(db: Db, userId: number, until: string): Promise<boolean> {
+  return (await db("users").where({ id: userId }).whereNull("locked_until").update({ locked_until: until })) === 1;
+}
+
+/** A right password: the count starts again, but only if no lock was set while it was being checked. */
+export async function settlePasswordSuccess(db: Db, userId: number, maxCount: number): Promise<boolean> {
+  return (await db("users").where({ id: userId }).whereNull("locked_until").where("failed_sign_ins", "<=", maxCount).update({ failed_sign_ins: 0 })) === 1;
 }
 
 export async function clearFailedSignIns(db: Db, userId: number): Promise<void> {

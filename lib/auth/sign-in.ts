@@ -1,6 +1,6 @@
 // Checks an e-mail and password, counting failures and locking the account after too many in a row (21 CFR 11.300).
 import type { Db } from "@/db";
-import { clearFailedSignIns, findUserByEmail, listMembershipsOfUser, recordFailedSignIn } from "@/db/queries/users";
+import { findUserByEmail, listMembershipsOfUser, lockAccount, reservePasswordAttempt, settlePasswordSuccess } from "@/db/queries/users";
 import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import type { Role } from "@/lib/permissions/roles";
@@ -46,39 +46,11 @@ export async function signInWithPassword(
   const memberships = await listMembershipsOfUser(db, user.id);
   const home = memberships[0];
   const labId = home?.lab_id ?? null;
-
-  if (user.locked_until && new Date(user.locked_until) > now) {
-    await verifyPassword(password, DUMMY_HASH);
-    await recordAudit(db, { labId, actorUserId: user.id, action: "auth.sign_in_refused_locked", reason: `locked until ${user.locked_until}` }, now);
-    throw new AppError({
-      code: "locked",
-      message: `This account is locked after ${MAX_FAILED_SIGN_INS} failed sign-ins in a row. Try again after ${hhmm(user.locked_until)}, or ask a lab administrator.`,
-    });
-  }
-
-  const ok = await verifyPassword(password, user.password_hash);
-  if (!ok) {
-    // A lock that has run out starts a fresh count.
-    const base = user.locked_until ? 0 : user.failed_sign_ins;
-    if (user.locked_until) await clearFailedSignIns(db, user.id);
-    const willLock = base + 1 >= MAX_FAILED_SIGN_INS;
-    const lockedUntil = willLock ? new Date(now.getTime() + LOCKOUT_MINUTES * 60_000).toISOString() : null;
-    const count = await recordFailedSignIn(db, user.id, lockedUntil);
-    await recordAudit(db, { labId, actorUserId: user.id, action: "auth.sign_in_failed", reason: `wrong password (${count} in a row)` }, now);
-    if (lockedUntil) {
-      await recordAudit(db, { labId, actorUserId: user.id, action: "auth.account_locked", newValues: { locked_until: lockedUntil }, reason: `${count} failed sign-ins in a row` }, now);
-      throw new AppError({
-        code: "locked",
-        message: `The password is not right. After ${MAX_FAILED_SIGN_INS} failed sign-ins in a row this account is locked for ${LOCKOUT_MINUTES} minutes, until ${hhmm(lockedUntil)}.`,
-      });
-    }
-    throw new AppError({ code: "unauthorized", message: WRONG_CREDENTIALS });
-  }
+  await checkAccountPassword(db, { id: user.id, password_hash: user.password_hash, labId }, password, "sign-in", now);
 
   if (!home) {
     throw new AppError({ code: "forbidden", message: "This account belongs to no lab yet. Ask a lab administrator to add you." });
   }
-  if (user.failed_sign_ins > 0 || user.locked_until) await clearFailedSignIns(db, user.id);
   await recordAudit(db, { labId: home.lab_id, actorUserId: user.id, action: "auth.signed_in" }, now);
   return {
     userId: user.id,
@@ -89,4 +61,48 @@ export async function signInWithPassword(
     labName: home.lab_name,
     role: home.role,
   };
+}
+
+/**
+ * The one password check for sign-in and for signatures (21 CFR 11.300(d)): every attempt is counted before the
+ * password is compared, atomically, so parallel guesses cannot outrun the limit; while the account is locked no
+ * password is compared at all; a right password counts only if no lock was set while it was checked. Wrong signing
+ * passwords count toward the same lockout. Throws AppError "unauthorized" or "locked".
+ */
+export async function checkAccountPassword(
+  db: Db,
+  user: { id: number; password_hash: string; labId: number | null },
+  password: string,
+  context: "sign-in" | "signature",
+  now: Date = new Date(),
+): Promise<void> {
+  const { count, lockedUntil } = await reservePasswordAttempt(db, user.id, now.toISOString());
+  const lockedMessage = (until: string) =>
+    `This account is locked after ${MAX_FAILED_SIGN_INS} failed ${context === "sign-in" ? "sign-ins" : "password entries"} in a row. Try again after ${hhmm(until)}, or ask a lab administrator.`;
+  if (lockedUntil || count > MAX_FAILED_SIGN_INS) {
+    // Locked, or past the limit by parallel attempts: refused without comparing the password.
+    const until = lockedUntil ?? new Date(now.getTime() + LOCKOUT_MINUTES * 60_000).toISOString();
+    if (!lockedUntil && (await lockAccount(db, user.id, until)))
+      await recordAudit(db, { labId: user.labId, actorUserId: user.id, action: "auth.account_locked", newValues: { locked_until: until }, reason: `${count} password attempts in a row without success` }, now);
+    await recordAudit(db, { labId: user.labId, actorUserId: user.id, action: context === "sign-in" ? "auth.sign_in_refused_locked" : "auth.password_refused_locked", reason: `locked until ${until}` }, now);
+    throw new AppError({ code: "locked", message: lockedMessage(until) });
+  }
+  const ok = await verifyPassword(password, user.password_hash);
+  if (ok) {
+    if (await settlePasswordSuccess(db, user.id, MAX_FAILED_SIGN_INS)) return;
+    // Locked by other attempts while this one was checked.
+    await recordAudit(db, { labId: user.labId, actorUserId: user.id, action: context === "sign-in" ? "auth.sign_in_refused_locked" : "auth.password_refused_locked", reason: "locked while the password was checked" }, now);
+    throw new AppError({ code: "locked", message: lockedMessage(new Date(now.getTime() + LOCKOUT_MINUTES * 60_000).toISOString()) });
+  }
+  await recordAudit(db, { labId: user.labId, actorUserId: user.id, action: context === "sign-in" ? "auth.sign_in_failed" : "auth.password_failed", reason: `wrong password (${count} in a row)` }, now);
+  if (count >= MAX_FAILED_SIGN_INS) {
+    const until = new Date(now.getTime() + LOCKOUT_MINUTES * 60_000).toISOString();
+    if (await lockAccount(db, user.id, until))
+      await recordAudit(db, { labId: user.labId, actorUserId: user.id, action: "auth.account_locked", newValues: { locked_until: until }, reason: `${count} failed password entries in a row` }, now);
+    throw new AppError({
+      code: "locked",
+      message: `The password is not right. After ${MAX_FAILED_SIGN_INS} failed ${context === "sign-in" ? "sign-ins" : "password entries"} in a row this account is locked for ${LOCKOUT_MINUTES} minutes, until ${hhmm(until)}.`,
+    });
+  }
+  throw new AppError({ code: "unauthorized", message: context === "sign-in" ? WRONG_CREDENTIALS : "The password is not right: the signature was not made." });
 }

@@ -6,6 +6,7 @@ import { getFit, insertFitVersion, latestVersion, listLatestFits, listVersions }
 import { recordAudit } from "@/lib/audit";
 import { canonicalJson } from "./canonical";
 import { AppError } from "@/lib/errors";
+import { claimNextVersion, writeVersion } from "@/lib/records";
 import { can } from "@/lib/permissions";
 import { getRun } from "@/db/queries/runs";
 import { ENGINE_VERSION, PRIMARY_MODEL, fitUnits, parameterUnit, evaluateCriteria, type UnitContext, fitSeriesWithOptions, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
@@ -95,8 +96,8 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
     return { id: previous.id, record_id: previous.record_id!, version: previous.version, content_hash: contentHash, unchanged: true };
   }
   const primary = primaryOf(results);
-  return db.transaction(async (trx) => {
-    const version = previous ? previous.version + 1 : 1;
+  return writeVersion(db, async (trx) => {
+    const version = await claimNextVersion(trx, "fits", user.labId, previous ? { id: previous.id, record_id: previous.record_id!, version: previous.version } : null);
     const id = await insertFitVersion(trx, {
       lab_id: user.labId,
       run_id: input.runId,

@@ -20,6 +20,7 @@ import { getRun } from "@/db/queries/runs";
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
+import { claimNextVersion, writeVersion } from "@/lib/records";
 import { canonicalJson } from "@/lib/fits/canonical";
 import { calibrate, compileFormula, ENGINE_VERSION, fitKinetics, FormulaError, type Calibration, type Conversion } from "@/lib/kinetics";
 import type { CreateCalibration, CustomModel, ListQueryInput, MethodDefinition, MethodForRun } from "@/lib/schemas/methods";
@@ -194,8 +195,8 @@ async function storeMethodVersion(db: Knex, user: SignedInUser, d: MethodDefinit
   const definition = canonicalJson(d);
   if (previous && previous.definition === definition) throw new AppError({ code: "conflict", message: "Nothing changed: the newest version already holds this definition." });
   const contentHash = sha(definition);
-  return db.transaction(async (trx) => {
-    const version = previous ? previous.version + 1 : 1;
+  return writeVersion(db, async (trx) => {
+    const version = await claimNextVersion(trx, "methods", user.labId, previous);
     const id = await insertMethodVersion(trx, {
       lab_id: user.labId,
       record_id: previous ? previous.record_id : null,

@@ -3,12 +3,12 @@
 // 11.70, 11.200), comments, and the reviewer's queue. Every act is audited in its own transaction.
 import type { Knex } from "knex";
 import { getFit, latestVersion } from "@/db/queries/fits";
-import { commentsOf, insertComment, insertReviewEvent, insertSignature, reviewEventsOf, signaturesOf, submittedFits } from "@/db/queries/reviews";
+import { commentsOf, insertComment, insertReviewEvent, insertSignature, moveReviewState, reviewEventsOf, signaturesOf, submittedFits } from "@/db/queries/reviews";
 import { findUserById, listLabMembers } from "@/db/queries/users";
 import { appUrl, linkMail, sendMail } from "@/lib/mail";
 import { createShareLink } from "@/lib/sharing";
 import { recordAudit } from "@/lib/audit";
-import { verifyPassword } from "@/lib/auth/password";
+import { checkAccountPassword } from "@/lib/auth/sign-in";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
 import { can, canReview } from "@/lib/permissions";
@@ -49,13 +49,24 @@ export async function reviewStatus(db: Knex, labId: number, fitId: number) {
 }
 export type ReviewStatus = Awaited<ReturnType<typeof reviewStatus>>;
 
-/** Signing asks for the password again (21 CFR 11.200); a wrong one is refused and audited. */
+/** Signing asks for the password again (21 CFR 11.200); a wrong one is refused, audited and counts toward the lockout. */
 export async function checkPassword(db: Knex, user: SignedInUser, password: string, act: string, objectId: number, objectType = "fit") {
   const row = await findUserById(db, user.userId);
-  if (!row || !(await verifyPassword(password, row.password_hash))) {
-    await recordAudit(db, { labId: user.labId, actorUserId: user.userId, action: "signature.refused", objectType, objectId, reason: `wrong password when signing: ${act}` });
-    throw new AppError({ code: "unauthorized", message: "The password is not right: the signature was not made." });
+  if (!row) throw new AppError({ code: "unauthorized", message: "The password is not right: the signature was not made." });
+  try {
+    await checkAccountPassword(db, { id: row.id, password_hash: row.password_hash, labId: user.labId }, password, "signature");
+  } catch (e) {
+    if (e instanceof AppError)
+      await recordAudit(db, { labId: user.labId, actorUserId: user.userId, action: "signature.refused", objectType, objectId, reason: e.code === "locked" ? `account locked when signing: ${act}` : `wrong password when signing: ${act}` });
+    throw e;
   }
+}
+
+/** The state check that guards a decision, inside the transaction that writes it: of two concurrent decisions on one
+ * version exactly one moves the state; the other gets 409 and nothing of it is written. */
+async function moveOrConflict(trx: Knex.Transaction, labId: number, fitId: number, from: readonly ReviewState[], to: ReviewState): Promise<void> {
+  if (!(await moveReviewState(trx, labId, "fit", fitId, from, to)))
+    throw new AppError({ code: "conflict", message: `Someone else acted on this version at the same time: it is no longer ${from.join(" or ")}. Reload the page to see its state.` });
 }
 
 async function sign(trx: Knex.Transaction, user: SignedInUser, fit: { id: number; content_hash: string }, meaning: Meaning, at: string) {
@@ -72,6 +83,9 @@ export async function submitFit(db: Knex, user: SignedInUser, fitId: number, pas
   await checkPassword(db, user, password, "submit", fitId);
   const at = new Date().toISOString();
   const result = await db.transaction(async (trx) => {
+    await moveOrConflict(trx, user.labId, fitId, ["draft", "withdrawn"], "submitted");
+    const newest = await latestVersion(trx, user.labId, f.record_id!);
+    if (newest && newest.id !== f.id) throw new AppError({ code: "conflict", message: `Version ${f.version} has been superseded by version ${newest.version}; submit the newest.` });
     const sig = await sign(trx, user, f, "authored", at);
     await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: "submitted", actor_id: user.userId, signature_id: sig, reason: null, at });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "fit.submitted", objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: status.state }, newValues: { state: "submitted", signature: { meaning: "authored", content_hash: f.content_hash } } });
@@ -98,6 +112,7 @@ export async function decideFit(db: Knex, user: SignedInUser, fitId: number, inp
   const meaning: Meaning = input.meaning ?? (input.decision === "approved" ? "approved" : "reviewed");
   const at = new Date().toISOString();
   const decided = await db.transaction(async (trx) => {
+    await moveOrConflict(trx, user.labId, fitId, ["submitted"], input.decision);
     const sig = await sign(trx, user, f, meaning, at);
     await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: input.decision, actor_id: user.userId, signature_id: sig, reason: input.reason ?? null, at });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: `fit.${input.decision}`, objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: "submitted" }, newValues: { state: input.decision, signature: { meaning, content_hash: f.content_hash } }, reason: input.reason ?? null });
@@ -117,6 +132,7 @@ export async function withdrawFit(db: Knex, user: SignedInUser, fitId: number, r
   if (!reason.trim()) throw new AppError({ code: "unprocessable", message: "Say why the submission is withdrawn." });
   const at = new Date().toISOString();
   return db.transaction(async (trx) => {
+    await moveOrConflict(trx, user.labId, fitId, ["submitted"], "withdrawn");
     await insertReviewEvent(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, state: "withdrawn", actor_id: user.userId, signature_id: null, reason, at });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "fit.withdrawn", objectType: "fit", objectId: f.record_id, objectVersion: f.version, oldValues: { state: "submitted" }, newValues: { state: "withdrawn" }, reason });
     return { state: "withdrawn" as const };

@@ -6,6 +6,7 @@ import { fitsForStudy, getStudy, insertStudyVersion, listLatestStudies, listStud
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
+import { claimNextVersion, writeVersion } from "@/lib/records";
 import { canonicalJson, csvCell } from "@/lib/fits";
 import {
   arrhenius,
@@ -126,8 +127,8 @@ async function storeVersion(
   const resolved = await resolveMembers(db, user.labId, input.members);
   const results = computeStudy(input.kind, resolved, input.options);
   const contentHash = createHash("sha256").update(canonicalJson({ members: resolved, options: input.options, results, engine: ENGINE_VERSION })).digest("hex");
-  return db.transaction(async (trx) => {
-    const version = input.previous ? input.previous.version + 1 : 1;
+  return writeVersion(db, async (trx) => {
+    const version = await claimNextVersion(trx, "studies", user.labId, input.previous ?? null);
     const id = await insertStudyVersion(trx, {
       lab_id: user.labId,
       record_id: input.previous ? input.previous.record_id : null,
