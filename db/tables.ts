@@ -17,6 +17,8 @@ export interface DbUserRow {
   locked_until: string | null;
   disabled: boolean | number;
   created_at: string;
+  /** Bumped by sign-out, deactivation and role changes: tokens issued under an older version no longer count. */
+  session_version: number;
 }
 
 export interface DbMembershipRow {

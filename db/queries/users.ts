@@ -121,3 +121,8 @@ export async function setUserDisabled(db: Db, userId: number, disabled: boolean)
 export async function setMembershipRole(db: Db, userId: number, labId: number, role: Role): Promise<void> {
   await db("memberships").where({ user_id: userId, lab_id: labId }).update({ role });
 }
+
+/** Ends every session of the user: tokens carry the version they were issued under. */
+export async function endSessions(db: Db, userId: number): Promise<void> {
+  await db("users").where({ id: userId }).update({ session_version: db.raw("session_version + 1") });
+}

@@ -1,7 +1,7 @@
 // Lab membership administration.
 import type { Db } from "@/db";
 import type { PageQuery } from "@/db/queries/paging";
-import { clearFailedSignIns, findUserById, listLabMembers, listMembershipsOfUser, pageLabMembers, setMembershipRole, setUserDisabled, type LabMemberRow } from "@/db/queries/users";
+import { clearFailedSignIns, endSessions, findUserById, listLabMembers, listMembershipsOfUser, pageLabMembers, setMembershipRole, setUserDisabled, type LabMemberRow } from "@/db/queries/users";
 import type { Knex } from "knex";
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
@@ -46,10 +46,12 @@ export async function changeMember(db: Knex, admin: SignedInUser, userId: number
     } else if (change.action === "deactivate" || change.action === "reactivate") {
       oldValues = { disabled: Boolean(user.disabled) };
       await setUserDisabled(trx, userId, change.action === "deactivate");
+      await endSessions(trx, userId);
       newValues = { disabled: change.action === "deactivate" };
     } else {
       oldValues = { role: membership.role };
       await setMembershipRole(trx, userId, admin.labId, change.role);
+      await endSessions(trx, userId);
       newValues = { role: change.role };
     }
     await recordAudit(trx, { labId: admin.labId, actorUserId: admin.userId, action: `member.${change.action === "role" ? "role_changed" : change.action}`, objectType: "user", objectId: userId, oldValues, newValues, reason: change.reason });

@@ -2,6 +2,7 @@
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { getDb } from "@/db";
+import { endSessions } from "@/db/queries/users";
 import { AppError } from "@/lib/errors";
 import { isRole } from "@/lib/permissions/roles";
 import { authSecret } from "./secret";
@@ -23,7 +24,7 @@ export const authOptions: NextAuthOptions = {
         if (!email || !password) throw new Error("Enter your e-mail and your password.");
         try {
           const u = await signInWithPassword(await getDb(), email, password);
-          return { id: String(u.userId), email: u.email, name: u.name, labId: u.labId, role: u.role };
+          return { id: String(u.userId), email: u.email, name: u.name, labId: u.labId, role: u.role, sv: u.sessionVersion ?? 0 };
         } catch (e) {
           // next-auth passes the thrown message to the sign-in form.
           if (e instanceof AppError) throw new Error(e.message);
@@ -35,15 +36,22 @@ export const authOptions: NextAuthOptions = {
   callbacks: {
     async jwt({ token, user }) {
       if (user) {
-        const u = user as { id: string; labId?: number; role?: string };
+        const u = user as { id: string; labId?: number; role?: string; sv?: number };
         token.uid = Number(u.id);
+        token.sv = u.sv ?? 0;
         token.labId = u.labId;
         token.role = isRole(u.role) ? u.role : undefined;
       }
       return token;
     },
     async session({ session, token }) {
-      return { ...session, uid: token.uid, labId: token.labId, role: token.role };
+      return { ...session, uid: token.uid, labId: token.labId, role: token.role, sv: token.sv };
+    },
+  },
+  events: {
+    // Signing out ends the session everywhere: the old token no longer matches the user's session version.
+    async signOut({ token }) {
+      if (token?.uid) await endSessions(await getDb(), token.uid);
     },
   },
 };
@@ -53,5 +61,6 @@ declare module "next-auth/jwt" {
     uid?: number;
     labId?: number;
     role?: import("@/lib/permissions/roles").Role;
+    sv?: number;
   }
 }

@@ -18,7 +18,7 @@ function secureCookies(): boolean {
 export async function startSession(u: SignedInUser): Promise<void> {
   const maxAge = SESSION_HOURS * 3600;
   const token = await encode({
-    token: { sub: String(u.userId), email: u.email, name: u.name, uid: u.userId, labId: u.labId, role: u.role },
+    token: { sub: String(u.userId), email: u.email, name: u.name, uid: u.userId, labId: u.labId, role: u.role, sv: u.sessionVersion ?? 0 },
     secret: authSecret(),
     maxAge,
   });

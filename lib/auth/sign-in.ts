@@ -17,6 +17,8 @@ export interface SignedInUser {
   labSlug: string;
   labName: string;
   role: Role;
+  /** The session version this sign-in was issued under (see users.session_version). */
+  sessionVersion?: number;
 }
 
 export const WRONG_CREDENTIALS = "The e-mail or password is not right. Check both and try again.";
@@ -60,6 +62,7 @@ export async function signInWithPassword(
     labSlug: home.lab_slug,
     labName: home.lab_name,
     role: home.role,
+    sessionVersion: user.session_version,
   };
 }
 

@@ -27,8 +27,10 @@ export const PERMISSIONS = {
   "review:read": [R],
   "review:comment": [R],
   "review:decide": [R],
-  // Sharing a pinned record version.
-  "share:create": [A, M, R, D],
+  // Sharing a pinned record version: only who may read the record; any member may withdraw a link (the administrator
+  // too, without reading the record).
+  "share:create": [A, M, R],
+  "share:revoke": [A, M, R, D],
   // Administration.
   "user:manage": [D],
   "audit:read": [D],

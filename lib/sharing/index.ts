@@ -10,6 +10,7 @@ import { getLabSettings } from "@/lib/admin/settings";
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
+import { can } from "@/lib/permissions";
 import { appUrl, linkMail, sendMail } from "@/lib/mail";
 
 const tokenHash = (t: string) => createHash("sha256").update(t).digest("hex");
@@ -21,6 +22,8 @@ export async function createShareLink(
   fitId: number,
   opts: { recipient?: string | null; days?: number; mail?: { subject: string; lines: string[] } },
 ) {
+  // A link opens the record for others: only someone who may read the record may make one.
+  if (!can(user, "fit:read")) throw new AppError({ code: "forbidden", message: "Your role does not read fit records, so it cannot share them." });
   const f = await getFit(db, user.labId, fitId);
   if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
   const token = randomBytes(24).toString("base64url");

@@ -42,15 +42,16 @@ describe("fitting workspace", () => {
     url.searchParams.set("models", "first-order,zero-order,second-order,biexponential,linearized");
     await page.goto(url.toString());
     const unitOf = (model: string, param: string) => page.locator(`td[data-model="${model}"][data-param="${param}"] [data-unit]`).first();
-    // Common practice (IUPAC Green Book 2.12): order-n rate constants in concentration^(1−n) time⁻¹; here absorbance.
+    // Common practice (IUPAC Green Book 2.12): order-n rate constants in concentration^(1−n) time⁻¹. The demo run's
+    // method converts absorbance by its calibration, in µmol/L.
     const expected: Array<[string, string, string]> = [
       ["first-order", "k", "s⁻¹"],
-      ["first-order", "a0", "AU"],
-      ["first-order", "ainf", "AU"],
-      ["zero-order", "k", "AU s⁻¹"],
-      ["second-order", "k", "AU⁻¹ s⁻¹"],
+      ["first-order", "a0", "µmol/L"],
+      ["first-order", "ainf", "µmol/L"],
+      ["zero-order", "k", "µmol/L s⁻¹"],
+      ["second-order", "k", "(µmol/L)⁻¹ s⁻¹"],
       ["biexponential", "k1", "s⁻¹"],
-      ["biexponential", "a2", "AU"],
+      ["biexponential", "a2", "µmol/L"],
       ["linearized", "k", "s⁻¹"],
     ];
     // The page starts per minute; then per second, as stored.

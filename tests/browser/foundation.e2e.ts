@@ -106,9 +106,14 @@ describe("an analyst", () => {
   it("signs out and is sent back to sign-in", async () => {
     const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
     await signIn(page, baseURL, analyst.email, analyst.password);
+    await page.getByTestId("workspace-nav").waitFor();
+    // The session cookie as it was before signing out: a copy kept elsewhere must stop working too.
+    const cookie = (await context.cookies(baseURL)).map((c) => `${c.name}=${c.value}`).join("; ");
+    expect((await fetch(`${baseURL}/api/me`, { headers: { cookie } })).status).toBe(200);
     await page.getByRole("button", { name: "Sign out" }).click();
     await page.waitForURL((u) => u.pathname === "/sign-in");
     await page.goto(`${baseURL}/runs`);
     expect(new URL(page.url()).pathname).toBe("/sign-in");
+    await expect.poll(async () => (await fetch(`${baseURL}/api/me`, { headers: { cookie } })).status).toBe(401);
   });
 });

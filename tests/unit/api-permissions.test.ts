@@ -130,7 +130,7 @@ const ROUTES: Record<string, RouteCase> = {
       POST: { permission: "share:create", url: "/api/fits/1/share", params: { id: "1" }, json: {}, ok: [201] },
     },
   },
-  "app/api/share-links/[id]/revoke/route.ts": { methods: { POST: { permission: "share:create", url: "/api/share-links/1/revoke", params: { id: "1" } } } },
+  "app/api/share-links/[id]/revoke/route.ts": { methods: { POST: { permission: "share:revoke", url: "/api/share-links/1/revoke", params: { id: "1" } } } },
   // Any signed-in member may open a link; this token matches no link, so the answer is the link's own 404.
   "app/api/share/[token]/route.ts": { methods: { GET: { permission: "self:read", url: "/api/share/x", params: { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" }, ok: [404] } } },
   "app/api/fits/[id]/audit/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1/audit", params: { id: "1" } } } },

@@ -88,14 +88,14 @@ describe("versions cannot fork", () => {
       [1, 2, 3, 4, 5].map((i) => call(as.analyst!, "fits", { runId, seriesId, title: "race: versions", previousId: id, reason: `change ${i}`, options: { models: ["first-order"], window: { from: 10 * i } } })),
     );
     expect(tally(rs)).toEqual({ 201: 1, 409: 4 });
-    const recordId = (await db("fits").where({ id }).first()).record_id;
+    const recordId = (await db("fits").where({ id }).first())!.record_id;
     expect((await db("fits").where({ record_id: recordId })).map((f) => f.version).sort()).toEqual([1, 2]);
     const dup = await db("fits").select("record_id", "version").count({ n: "*" }).groupBy("record_id", "version").having(db.raw("count(*) > 1"));
     expect(dup).toEqual([]);
   });
 
   it("the database itself refuses a second row with the same record and version", async () => {
-    const f = await db("fits").where({ version: 1 }).first();
+    const f = (await db("fits").where({ version: 1 }).first())!;
     const { id: _id, ...copy } = f;
     await expect(db("fits").insert({ ...copy, content_hash: "x".repeat(64) })).rejects.toThrow(/UNIQUE/);
   });
@@ -108,7 +108,7 @@ describe("the lockout cannot be outrun", () => {
     const rs = await Promise.allSettled(attempts.map((p) => signInWithPassword(db, u.email, p)));
     expect(rs[40]!.status).toBe("rejected");
     expect(rs.filter((r) => r.status === "fulfilled")).toHaveLength(0);
-    const row = await db("users").where({ email: u.email }).first();
+    const row = (await db("users").where({ email: u.email }).first())!;
     expect(row.failed_sign_ins).toBe(41);
     expect(row.locked_until).not.toBeNull();
     // At most the limit's worth of passwords were compared: the rest were refused as locked without a comparison.
@@ -121,7 +121,7 @@ describe("the lockout cannot be outrun", () => {
     const id = await newFit("signing guesses");
     const guesses = await Promise.all(Array.from({ length: 8 }, (_, i) => call(as.analyst!, "fits/[id]/submit", { password: `sign-guess-${i}` }, { id: String(id) })));
     expect(guesses.every((g) => g.status === 401 || g.status === 423)).toBe(true);
-    const row = await db("users").where({ id: as.analyst!.userId }).first();
+    const row = (await db("users").where({ id: as.analyst!.userId }).first())!;
     expect(row.locked_until).not.toBeNull();
     expect(await db("audit_events").where({ actor_user_id: as.analyst!.userId, action: "signature.refused" })).toHaveLength(8);
     // Now even the right password neither signs nor signs in.
