@@ -44,6 +44,17 @@ export interface DbAuditEventRow {
   reason: string | null;
   prev_hash: string | null;
   hash: string;
+  /** HMAC-SHA-256 of `hash` under the server's audit key (null on rows written before the key was introduced). */
+  mac: string | null;
+}
+
+export interface DbAuditHeadRow {
+  id: number;
+  row_count: number;
+  head_id: number | null;
+  head_hash: string | null;
+  mac: string | null;
+  updated_at: string;
 }
 
 export interface DbRawFileRow {

@@ -12,6 +12,7 @@ import { listAuditTrail } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
+import { verifyFitVersion, type RecordIntegrity } from "@/lib/integrity";
 import { can } from "@/lib/permissions";
 
 
@@ -32,6 +33,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
   const newest = versions.at(-1)!;
   const k = rec.primary.k;
   const units = recordUnits(rec.results, rec.options);
+  const integrity = await verifyFitVersion(db, labId, rec.id);
   return (
     <>
       <PageHeader
@@ -59,6 +61,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
         }
       />
       {banner}
+      <IntegrityNote integrity={integrity} />
       {newest.id !== rec.id && (
         <p className="mb-4 rounded-cell bg-caution-100 px-4 py-2 text-sm text-caution-700">
           This is not the newest version. <Link className="font-semibold underline" href={`/fits/${newest.id}`}>Open version {newest.version}</Link>.
@@ -198,5 +201,25 @@ function MethodVerdict({ ev, linked }: { ev: NonNullable<FitRecordData["results"
         </div>
       )}
     </section>
+  );
+}
+
+/** Recomputed on every view: the content hash from the stored options and results, the data's and the raw file's SHA-256. */
+function IntegrityNote({ integrity }: { integrity: RecordIntegrity }) {
+  if (integrity.ok)
+    return (
+      <p className="mb-4 text-sm text-pass-700" data-testid="integrity" data-ok="true">
+        Integrity verified: the content hash, the data&apos;s and the raw file&apos;s SHA-256 were recomputed from what is stored and match.
+      </p>
+    );
+  return (
+    <div role="alert" className="mb-4 rounded-cell bg-fault-100 px-4 py-3 text-sm text-fault-700" data-testid="integrity" data-ok="false">
+      <p className="font-semibold">Tamper warning: this version no longer matches what was recorded. Do not rely on it; tell the lab administrator.</p>
+      <ul className="mt-1 list-disc pl-5">
+        {integrity.problems.map((p) => (
+          <li key={p}>{p}</li>
+        ))}
+      </ul>
+    </div>
   );
 }

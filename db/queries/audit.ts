@@ -1,6 +1,6 @@
 // The audit trail: rows are only ever inserted (the database refuses updates and deletes).
 import type { Db } from "@/db";
-import type { DbAuditEventRow } from "@/db/tables";
+import type { DbAuditEventRow, DbAuditHeadRow } from "@/db/tables";
 
 export type NewAuditRow = Omit<DbAuditEventRow, "id">;
 
@@ -40,7 +40,22 @@ export async function auditRowsOfObject(db: Db, labId: number, objectType: strin
   return db("audit_events").where({ lab_id: labId, object_type: objectType, object_id: objectId }).orderBy("id");
 }
 
-/** Every row in order, for verifying the hash chain. */
-export async function allAuditRowsInOrder(db: Db): Promise<DbAuditEventRow[]> {
-  return db("audit_events").orderBy("id", "asc");
+/** One page of rows after `afterId`, oldest first: verification streams the trail in bounded memory. */
+export async function auditRowsAfter(db: Db, afterId: number, limit: number): Promise<DbAuditEventRow[]> {
+  return db("audit_events").where("id", ">", afterId).orderBy("id", "asc").limit(limit);
+}
+
+/** The trail's head, read with a row lock where the database has them, so appends are serialised. */
+export async function lockAuditHead(db: Db): Promise<DbAuditHeadRow | undefined> {
+  const q = db("audit_head").where({ id: 1 });
+  return (String(db.client.config.client).includes("pg") ? q.forUpdate() : q).first();
+}
+
+export async function readAuditHead(db: Db): Promise<DbAuditHeadRow | undefined> {
+  return db("audit_head").where({ id: 1 }).first();
+}
+
+export async function writeAuditHead(db: Db, head: Omit<DbAuditHeadRow, "id">): Promise<void> {
+  const n = await db("audit_head").where({ id: 1 }).update(head);
+  if (n === 0) await db("audit_head").insert({ id: 1, ...head });
 }

@@ -4,6 +4,7 @@
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
+import { verifyFitVersion } from "@/lib/integrity";
 import { computeFit, getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { reviewStatus } from "@/lib/reviews";
@@ -47,6 +48,8 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   line(`Raw file: ${run.raw_file.name} · SHA-256 ${run.raw_file.sha256}`, 8, "mono");
   line(`Data SHA-256 ${rec.data_sha256}`, 8, "mono");
   line(`Record content hash ${rec.content_hash} · ${rec.engine_version}`, 8, "mono");
+  const integrity = await verifyFitVersion(db, labId, id);
+  line(integrity.ok ? "Integrity verified: content hash, data and raw file SHA-256 recomputed from what is stored." : `TAMPER WARNING: ${integrity.problems.join(" ")}`, 9, integrity.ok ? "sans" : "bold");
 
   heading(`Rate constant (${rec.primary.model})`);
   const units = recordUnits(rec.results, rec.options);

@@ -1,5 +1,6 @@
 // Reading stored runs: the paged list, one run with its series, a series' points (decimated for display with the
 // `downsample` package's LTTB; full data on request) and the original file.
+import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { LTTB } from "downsample";
 import { getRawFile, getRun, getSeriesWithPoints, listRuns, listSeriesOfRun, unpackF64 } from "@/db/queries/runs";
@@ -110,5 +111,8 @@ export async function seriesForDisplay(db: Knex, labId: number, runId: number, s
 export async function rawFileDownload(db: Knex, labId: number, id: number) {
   const f = await getRawFile(db, labId, id);
   if (!f) throw new AppError({ code: "not_found", message: `There is no raw file ${id} in this lab.` });
+  // Every read re-hashes the bytes: a replaced file is refused, never served as the original.
+  if (createHash("sha256").update(f.bytes).digest("hex") !== f.sha256)
+    throw new AppError({ code: "conflict", message: `The stored raw file ${f.name} no longer matches its SHA-256: it was changed outside the application and is not served. Tell the lab administrator.` });
   return f;
 }

@@ -144,6 +144,7 @@ const ROUTES: Record<string, RouteCase> = {
   "app/api/validation/[id]/report/route.ts": { methods: { GET: { permission: "validation:run", url: "/api/validation/1/report", params: { id: "1" } } } },
   "app/api/reviews/route.ts": { methods: { GET: { permission: "review:read", url: "/api/reviews" } } },
   "app/api/audit/verify/route.ts": { methods: { GET: { permission: "audit:read", url: "/api/audit/verify" } } },
+  "app/api/admin/integrity/route.ts": { methods: { POST: { permission: "audit:read", url: "/api/admin/integrity", json: {} } } },
   "app/api/studies/[id]/results/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/results", params: { id: "1" } } } },
   "app/api/studies/[id]/export/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/export", params: { id: "1" } } } },
 };

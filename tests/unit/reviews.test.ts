@@ -113,12 +113,13 @@ describe("audit verification", () => {
     session.current = as.admin!;
     const { GET } = await import("@/app/api/audit/verify/route");
     const ok = await (await GET(new Request("http://halflight.test/api/audit/verify"), ctx())).json();
-    expect(ok).toEqual({ intact: true, first_broken_row: null });
+    expect(ok).toMatchObject({ intact: true, first_broken_row: null, problems: [] });
     const victim = await db("audit_events").where({ action: "fit.approved" }).first();
     await db.raw("DROP TRIGGER audit_events_no_update");
     await db("audit_events").where({ id: victim!.id }).update({ reason: "rewritten later" });
     const bad = await (await GET(new Request("http://halflight.test/api/audit/verify"), ctx())).json();
-    expect(bad).toEqual({ intact: false, first_broken_row: victim!.id });
+    expect(bad).toMatchObject({ intact: false, first_broken_row: victim!.id });
+    expect(bad.problems[0]).toMatch(new RegExp(`Row ${victim!.id} has been changed`));
   });
 });
 

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { IntegrityCheck } from "@/components/admin/integrity-check";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Table, Td, Th } from "@/components/ui/table";
@@ -17,8 +18,9 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
     <>
       <PageHeader
         title="Audit trail"
-        lede="Append-only and hash-chained: rows are never changed or removed. Times are the server clock, in UTC."
+        lede="Append-only, hash-chained and keyed: rows are never changed or removed. Times are the server clock, in UTC."
       />
+      <IntegrityCheck />
       <form className="mb-4 flex flex-wrap items-end gap-3 text-sm" action="/admin/audit">
         <label>
           <span className="block font-semibold text-ink-700">Action starts with</span>

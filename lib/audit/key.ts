@@ -1,0 +1,43 @@
+// The audit key: HMAC key of the audit chain, kept apart from the data, so a copy of the database cannot re-hash the
+// trail unnoticed. AUDIT_KEY (at least 32 characters) in production; for the demo and development one is generated
+// once into HALFLIGHT_KEY_DIR (default ~/.halflight), never beside the database file.
+import { createHmac, randomBytes } from "node:crypto";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+
+let cached: Buffer | undefined;
+
+export function auditKey(): Buffer {
+  if (cached) return cached;
+  const fromEnv = process.env.AUDIT_KEY;
+  if (fromEnv) {
+    if (fromEnv.length < 32) throw new Error("AUDIT_KEY must have at least 32 characters (for example: openssl rand -base64 32).");
+    cached = Buffer.from(fromEnv, "utf8");
+    return cached;
+  }
+  const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
+  const file = path.join(dir, "audit.key");
+  try {
+    cached = Buffer.from(fs.readFileSync(file, "utf8").trim(), "utf8");
+  } catch {
+    fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
+    try {
+      fs.writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600, flag: "wx" });
+    } catch (e) {
+      // Another process made it first: use theirs.
+      if ((e as NodeJS.ErrnoException).code !== "EEXIST") throw e;
+    }
+    cached = Buffer.from(fs.readFileSync(file, "utf8").trim(), "utf8");
+  }
+  return cached;
+}
+
+export function auditMac(text: string, key: Buffer = auditKey()): string {
+  return createHmac("sha256", key).update(text).digest("hex");
+}
+
+/** The head's MAC binds the row count, the newest row and its hash: truncation or a rewritten head no longer match. */
+export function headMac(count: number, headId: number | null, headHash: string | null, key: Buffer = auditKey()): string {
+  return auditMac(`audit-head|${count}|${headId ?? ""}|${headHash ?? ""}`, key);
+}
