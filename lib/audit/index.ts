@@ -20,7 +20,7 @@ export interface AuditEventInput {
 
 type HashedFields = Omit<NewAuditRow, "hash" | "mac">;
 
-function rowHash(row: HashedFields): string {
+export function rowHash(row: HashedFields): string {
   // Fixed field order, so the hash does not depend on how a driver returns columns.
   const canonical = JSON.stringify([
     row.prev_hash,

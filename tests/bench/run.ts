@@ -1,5 +1,6 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula` or `-- ingest` runs one part.
+// `npm run bench -- engine`, `-- formula`, `-- ingest` or `-- audit` runs one part.
+import { benchAudit } from "./audit";
 import { benchEngine } from "./engine";
 import { benchFormula } from "./formula";
 import { benchIngest } from "./ingest";
@@ -9,3 +10,8 @@ console.log(`Halflight benchmarks on Node ${process.version}, ${process.platform
 if (!only || only === "engine") benchEngine();
 if (!only || only === "formula") benchFormula();
 if (!only || only === "ingest") benchIngest();
+if (!only || only === "audit")
+  benchAudit().catch((e: unknown) => {
+    console.error(e);
+    process.exitCode = 1;
+  });
