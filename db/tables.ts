@@ -121,7 +121,6 @@ export interface DbFitRow {
   k_value: number | null;
   k_se: number | null;
   criteria_failed: number | null;
-  state: string;
   options: string;
   results: string;
   engine_version: string;

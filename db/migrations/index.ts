@@ -10,6 +10,7 @@ import * as sharing from "./20261202080000_sharing";
 import * as validation from "./20261202090000_validation";
 import * as methods from "./20261202100000_methods";
 import * as integrity from "./20261202110000_integrity";
+import * as fitsState from "./20261202120000_fits_state";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
@@ -21,4 +22,5 @@ export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<
   { name: "20261202090000_validation", ...validation },
   { name: "20261202100000_methods", ...methods },
   { name: "20261202110000_integrity", ...integrity },
+  { name: "20261202120000_fits_state", ...fitsState },
 ];

@@ -55,7 +55,7 @@ export async function listLatestFits(db: Db, f: FitListFilter) {
   const total = await q.clone().count<{ n: number | string }[]>({ n: "*" }).first();
   const rows = await q
     .clone()
-    .select("f.id", "f.record_id", "f.version", "f.title", "f.primary_model", "f.k_value", "f.k_se", "f.criteria_failed", "f.state", "f.created_at", "f.run_id", "f.series_id", "r.name as run_name", "s.name as series_name", "u.display_name as author_name", "r.temperature_c", "ev.state as review_state")
+    .select("f.id", "f.record_id", "f.version", "f.title", "f.primary_model", "f.k_value", "f.k_se", "f.criteria_failed", "f.created_at", "f.run_id", "f.series_id", "r.name as run_name", "s.name as series_name", "u.display_name as author_name", "r.temperature_c", "ev.state as review_state")
     .orderBy(`f.${f.sort}`, f.dir)
     .limit(f.limit)
     .offset(f.offset);
