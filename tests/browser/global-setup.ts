@@ -24,6 +24,7 @@ declare module "vitest" {
     artifacts: string;
     mailDir: string;
     serverLog: string;
+    dbFile: string;
   }
 }
 
@@ -109,6 +110,7 @@ export async function setup(project: TestProject): Promise<void> {
   project.provide("artifacts", artifacts);
   project.provide("mailDir", mailDir);
   project.provide("serverLog", serverLog);
+  project.provide("dbFile", dbFile);
 }
 
 export async function teardown(): Promise<void> {
