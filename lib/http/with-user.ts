@@ -5,6 +5,7 @@ import { getSessionUser, type SignedInUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 import { can, type Permission } from "@/lib/permissions";
 import { toErrorResponse } from "./errors";
+import { assertSameOriginWrite } from "./guard";
 
 export interface HandlerContext<P> {
   req: Request;
@@ -22,6 +23,7 @@ export function withUser<P = Record<string, never>>(
 ): (req: Request, ctx: RouteContext<P>) => Promise<Response> {
   return async (req, ctx) => {
     try {
+      assertSameOriginWrite(req);
       const user = await getSessionUser();
       if (!user) throw new AppError({ code: "unauthorized", message: "Sign in first." });
       if (!can(user, opts.permission)) {

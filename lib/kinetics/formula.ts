@@ -16,11 +16,10 @@ const MAX_TREE_DEPTH = 1200;
 /** Trees up to this size get symbolic derivatives; larger ones use central differences. */
 const SYMBOLIC_DERIVATIVE_NODES = 120;
 /** mathjs's full simplification (rule rewriting, exponential in the length of a sum) only on derivatives this small,
- * with sums and products of at most SIMPLIFY_CHAIN operands, and only while the formula's simplification budget lasts;
- * the rest keep the one-pass simplifyCore form. Simplified forms round less (NIST Bennett5: LRE 8.5 against 6.9). */
+ * with sums and products of at most SIMPLIFY_CHAIN operands (a rule of size, never of time, so a formula always gets
+ * the same derivatives); the rest keep the pruned form. Simplified forms round less (NIST Bennett5: LRE 8.5 against 6.9). */
 const SIMPLIFY_NODES = 60;
 const SIMPLIFY_CHAIN = 6;
-const SIMPLIFY_BUDGET_MS = 60;
 const MAX_PARAMETERS = 12;
 
 const KNOWN_CONSTANTS = new Set(["pi", "e", "E", "PI"]);
@@ -147,10 +146,9 @@ export function compileFormula(source: string, variable = "t"): CompiledFormula 
   try {
     f = node.compile();
     if (size <= SYMBOLIC_DERIVATIVE_NODES) {
-      const until = performance.now() + SIMPLIFY_BUDGET_MS;
       d = params.map((p) => {
         let dp = prune(derivative(node, p, { simplify: false }));
-        if (performance.now() < until && simplifiable(dp)) dp = simplify(dp);
+        if (simplifiable(dp)) dp = simplify(dp);
         return dp.compile();
       });
     }

@@ -8,4 +8,6 @@ export const PATHOLOGICAL_FORMULAS: Array<{ label: string; formula: string }> = 
   { label: "nested exponentials", formula: "a*" + "exp(".repeat(38) + "-k*t" + ")".repeat(38) },
   { label: "many parameters in one product", formula: Array.from({ length: 12 }, (_, i) => `b${i + 1}`).join("*") + "*t" },
   { label: "powers of powers", formula: "a*t" + "^t".repeat(200) },
+  { label: "twelve parameters, each derivative simplified", formula: "(a+b+c+d+e+f)*(g+h+t+j+k+l)" },
+  { label: "nested powers of sums", formula: "((a*t+b)^(c*t+d))^((e*t+f)^(g*t+h))" },
 ];

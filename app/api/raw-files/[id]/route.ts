@@ -1,3 +1,4 @@
+import { attachment } from "@/lib/http/download";
 import { withUser } from "@/lib/http/with-user";
 import { rawFileDownload } from "@/lib/runs";
 import { idParam } from "@/lib/schemas/common";
@@ -8,7 +9,7 @@ export const GET = withUser<{ id: string }>({ permission: "run:read" }, async ({
   return new Response(new Uint8Array(f.bytes), {
     headers: {
       "content-type": "application/octet-stream",
-      "content-disposition": `attachment; filename="${f.name.replace(/["\\\r\n]/g, "_")}"`,
+      "content-disposition": attachment(f.name),
       "x-content-sha256": f.sha256,
       "content-length": String(f.size),
     },

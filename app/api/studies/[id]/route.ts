@@ -1,4 +1,4 @@
-import { AppError } from "@/lib/errors";
+import { jsonBody } from "@/lib/http/json-body";
 import { withUser } from "@/lib/http/with-user";
 import { idParam } from "@/lib/schemas/common";
 import { changeStudySchema } from "@/lib/schemas/studies";
@@ -8,8 +8,6 @@ export const GET = withUser<{ id: string }>({ permission: "study:read" }, async 
 
 // A change (members, temperatures, options, name) saves a new version; the reason is required.
 export const POST = withUser<{ id: string }>({ permission: "study:write" }, async ({ req, params, db, user }) => {
-  const body = await req.json().catch(() => {
-    throw new AppError({ code: "bad_request", message: "Send the change as JSON." });
-  });
+  const body = await jsonBody(req);
   return Response.json(await changeStudy(db, user, idParam.parse(params.id), changeStudySchema.parse(body)), { status: 201 });
 });

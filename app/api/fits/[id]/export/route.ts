@@ -1,3 +1,4 @@
+import { attachment } from "@/lib/http/download";
 import { z } from "zod";
 import { fitDataCsv, fitParametersCsv } from "@/lib/fits";
 import { withUser } from "@/lib/http/with-user";
@@ -10,5 +11,5 @@ export const GET = withUser<{ id: string }>({ permission: "fit:read" }, async ({
   const { kind } = query.parse(Object.fromEntries(new URL(req.url).searchParams));
   const id = idParam.parse(params.id);
   const f = kind === "data" ? await fitDataCsv(db, user.labId, id) : await fitParametersCsv(db, user.labId, id);
-  return new Response(f.text, { headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": `attachment; filename="${f.name}"` } });
+  return new Response(f.text, { headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": attachment(f.name) } });
 });
