@@ -77,3 +77,8 @@ function rowsAffected(result: unknown): number {
   const r = result as { changes?: number; rowCount?: number };
   return Number(r.changes ?? r.rowCount ?? 0);
 }
+
+/** A comment of this lab on this record version (a reply's parent must be one). */
+export async function findCommentOn(db: Db, labId: number, objectType: string, objectId: number, id: number): Promise<DbCommentRow | undefined> {
+  return db("comments").where({ id, lab_id: labId, object_type: objectType, object_id: objectId }).first();
+}

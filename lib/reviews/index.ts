@@ -3,7 +3,7 @@
 // 11.70, 11.200), comments, and the reviewer's queue. Every act is audited in its own transaction.
 import type { Knex } from "knex";
 import { getFit, latestVersion } from "@/db/queries/fits";
-import { commentsOf, insertComment, insertReviewEvent, insertSignature, moveReviewState, reviewEventsOf, signaturesOf, submittedFits } from "@/db/queries/reviews";
+import { commentsOf, findCommentOn, insertComment, insertReviewEvent, insertSignature, moveReviewState, reviewEventsOf, signaturesOf, submittedFits } from "@/db/queries/reviews";
 import { findUserById, listLabMembers } from "@/db/queries/users";
 import { appUrl, linkMail, sendMail } from "@/lib/mail";
 import { createShareLink } from "@/lib/sharing";
@@ -143,6 +143,9 @@ export async function addComment(db: Knex, user: SignedInUser, fitId: number, bo
   const f = await fitVersionOrThrow(db, user.labId, fitId);
   const mayComment = can(user, "review:comment") || f.author_id === user.userId || can(user, "fit:write");
   if (!mayComment) throw new AppError({ code: "forbidden", message: "Your role does not comment on records." });
+  // A reply answers a comment on this same version, in this lab; any other id answers 404 (never "exists elsewhere").
+  if (parentId !== undefined && !(await findCommentOn(db, user.labId, "fit", fitId, parentId)))
+    throw new AppError({ code: "not_found", message: `There is no comment ${parentId} on this version to reply to.` });
   const added = await db.transaction(async (trx) => {
     const id = await insertComment(trx, { lab_id: user.labId, object_type: "fit", object_id: fitId, parent_id: parentId ?? null, author_id: user.userId, body, created_at: new Date().toISOString() });
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "comment.added", objectType: "fit", objectId: f.record_id, objectVersion: f.version, newValues: { comment_id: id, parent_id: parentId ?? null, body } });

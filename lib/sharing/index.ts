@@ -98,5 +98,7 @@ export async function openShareLinkOutside(db: Knex, token: string, now = new Da
 }
 
 export async function listShareLinks(db: Knex, labId: number, fitId: number) {
+  // Another lab's record answers 404, as it would when opened: an empty list would say it exists.
+  if (!(await getFit(db, labId, fitId))) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
   return (await shareLinksOf(db, labId, "fit", fitId)).map((r) => ({ ...r, views: Number((r as { views: unknown }).views) }));
 }

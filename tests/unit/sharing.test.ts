@@ -121,6 +121,19 @@ describe("share links", () => {
     await insertMembership(db, { userId: u.id, labId: lab.id, role: "reviewer", createdAt: now });
     session.current = await signInWithPassword(db, "out@elsewhere.example", "elsewhere-123");
     expect((await open(s.body.path.split("/").pop())).status).toBe(404);
+    // Listing that record's links and replying to its comments answer 404 too, never an empty list or a 201.
+    const { GET } = await import("@/app/api/fits/[id]/share/route");
+    expect((await GET(new Request("http://halflight.test/api/fits/1/share"), ctx({ id: "1" }))).status).toBe(404);
+    session.current = as.analyst!;
+    const { POST } = await import("@/app/api/fits/[id]/comments/route");
+    const comment = async (id: number, body: unknown) => (await POST(new Request(`http://halflight.test/api/fits/${id}/comments`, { method: "POST", body: JSON.stringify(body) }), ctx({ id: String(id) }))).status;
+    expect(await comment(1, { body: "the residuals look clean" })).toBe(201);
+    const own = (await db("comments").where({ object_id: 1 }).orderBy("id", "desc").first())!;
+    expect(await comment(1, { body: "agreed", parentId: own.id })).toBe(201);
+    const before = Number((await db("comments").count({ n: "*" }))[0]!.n);
+    // A parent on another version (or in another lab) is not found.
+    expect(await comment(2, { body: "a reply to a comment elsewhere", parentId: own.id })).toBe(404);
+    expect(Number((await db("comments").count({ n: "*" }))[0]!.n)).toBe(before);
   });
 });
 
