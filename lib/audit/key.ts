@@ -1,10 +1,12 @@
 // The audit key: HMAC key of the audit chain, kept apart from the data, so a copy of the database cannot re-hash the
 // trail unnoticed. AUDIT_KEY (at least 32 characters) in production; for the demo and development one is generated
-// once into HALFLIGHT_KEY_DIR (default ~/.halflight), never beside the database file.
+// once into HALFLIGHT_KEY_DIR (default ~/.halflight), never beside the database file; a production start without it
+// is a clear error.
 import { createHmac, randomBytes } from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
+import { keysMayBeGenerated } from "@/lib/auth/secret";
 
 let cached: Buffer | undefined;
 
@@ -16,6 +18,7 @@ export function auditKey(): Buffer {
     cached = Buffer.from(fromEnv, "utf8");
     return cached;
   }
+  if (!keysMayBeGenerated()) throw new Error("AUDIT_KEY is not set. Set it to a long random value kept apart from the data (for example: openssl rand -base64 32) before starting Halflight.");
   const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
   const file = path.join(dir, "audit.key");
   try {

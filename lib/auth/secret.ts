@@ -1,23 +1,31 @@
-// The session-signing secret: NEXTAUTH_SECRET, or one generated once and kept beside the database file.
+// The session-signing secret: NEXTAUTH_SECRET. Only the demo and development may do without it: then one is generated
+// once into HALFLIGHT_KEY_DIR (default ~/.halflight), never beside the database, so a copy of the data carries no key.
+// A production start without it is a clear error, never a silently generated secret.
 import { randomBytes } from "node:crypto";
 import fs from "node:fs";
+import os from "node:os";
 import path from "node:path";
-import { DEFAULT_DATABASE_FILE } from "@/db/config";
 
 let cached: string | undefined;
+
+/** The demo (`npm run demo` sets HALFLIGHT_DEMO=1), development and tests may generate their keys. */
+export function keysMayBeGenerated(): boolean {
+  return process.env.HALFLIGHT_DEMO === "1" || process.env.NODE_ENV !== "production";
+}
 
 export function authSecret(): string {
   if (process.env.NEXTAUTH_SECRET) return process.env.NEXTAUTH_SECRET;
   if (cached) return cached;
-  const dbFile = process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE;
-  const dir = dbFile === ":memory:" ? path.resolve("data") : path.dirname(path.resolve(dbFile));
-  const file = path.join(dir, ".auth-secret");
+  if (!keysMayBeGenerated())
+    throw new Error("NEXTAUTH_SECRET is not set. Set it to a long random value (for example: openssl rand -base64 32) before starting Halflight.");
+  const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
+  const file = path.join(dir, "session.key");
+  fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
   try {
-    cached = fs.readFileSync(file, "utf8").trim();
-  } catch {
-    fs.mkdirSync(dir, { recursive: true });
-    cached = randomBytes(32).toString("base64url");
-    fs.writeFileSync(file, cached, { mode: 0o600 });
+    fs.writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600, flag: "wx" });
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code !== "EEXIST") throw e;
   }
+  cached = fs.readFileSync(file, "utf8").trim();
   return cached;
 }

@@ -1,5 +1,6 @@
-// `npm start` / the last step of `npm run demo`: serves the production build on PORT (default 3000). Without an
-// SMTP_URL it first starts the local mail sink (messages saved under data/mail, shown on the admin's Demo inbox page).
+// `npm start` / the last step of `npm run demo`: serves the production build on PORT (default 3000). The demo
+// (HALFLIGHT_DEMO=1) starts the local mail sink when there is no SMTP_URL (messages saved under data/mail, shown on the
+// admin's Demo inbox page) and may generate its keys; outside the demo a missing secret or mail server stops the start.
 import { spawn } from "node:child_process";
 import path from "node:path";
 import { startMailSink } from "../mail/sink";
@@ -8,7 +9,16 @@ async function main() {
   const port = process.env.PORT ?? "3000";
   const env: NodeJS.ProcessEnv = { ...process.env, PORT: port, NEXT_TELEMETRY_DISABLED: "1", NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}` };
   let closeSink: (() => Promise<void>) | null = null;
-  if (!env.SMTP_URL) {
+  const demo = env.HALFLIGHT_DEMO === "1";
+  if (!demo) {
+    const missing = [
+      !env.NEXTAUTH_SECRET && "NEXTAUTH_SECRET (the session-signing secret)",
+      !env.AUDIT_KEY && "AUDIT_KEY (the audit trail's key, kept apart from the data)",
+      !env.SMTP_URL && env.MAIL_TRANSPORT !== "log" && "SMTP_URL (the mail server for review requests and invitations; or MAIL_TRANSPORT=log to write mail to the log on purpose)",
+    ].filter(Boolean);
+    if (missing.length) throw new Error(`Halflight will not start without:\n  - ${missing.join("\n  - ")}\nSet them in the environment (README: "Run it for a real lab"), or run the demo with npm run demo.`);
+  }
+  if (demo && !env.SMTP_URL) {
     const dir = path.resolve(process.env.MAIL_SINK_DIR ?? "data/mail");
     const sink = await startMailSink(dir, Number(process.env.MAIL_SINK_PORT ?? 2525));
     env.SMTP_URL = `smtp://127.0.0.1:${sink.port}`;

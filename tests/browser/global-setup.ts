@@ -64,6 +64,8 @@ export async function setup(project: TestProject): Promise<void> {
     });
     if (b.status !== 0) throw new Error("next build failed");
   }
+  // One audit key for the seeding here and the server: rows written now must verify there.
+  process.env.AUDIT_KEY ??= randomBytes(32).toString("base64url");
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-e2e-"));
   const dbFile = path.join(dir, "e2e.sqlite");
   const db = openDb(dbFile);
@@ -91,6 +93,7 @@ export async function setup(project: TestProject): Promise<void> {
       DATABASE_FILE: dbFile,
       NEXTAUTH_URL: baseURL,
       NEXTAUTH_SECRET: randomBytes(24).toString("base64url"),
+      AUDIT_KEY: process.env.AUDIT_KEY,
       NEXT_TELEMETRY_DISABLED: "1",
       SMTP_URL: `smtp://127.0.0.1:${sink.port}`,
       MAIL_SINK_DIR: mailDir,
