@@ -148,6 +148,7 @@ export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: 
       </div>
       <Dialog open={act !== null} onClose={() => setAct(null)} title={act === "submit" ? "Submit for review" : act === "approve" ? "Approve this version" : act === "reject" ? "Reject this version" : "Withdraw the submission"}>
         <form
+          method="post"
           className="space-y-4"
           onSubmit={(e) => {
             e.preventDefault();
