@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 const TSX = path.resolve("node_modules/tsx/dist/cli.mjs");
 
 function start(env: Record<string, string>) {
-  return spawnSync(process.execPath, [TSX, "lib/cli/serve.ts"], { encoding: "utf8", timeout: 60_000, env: { PATH: process.env.PATH!, HOME: process.env.HOME!, ...env } as NodeJS.ProcessEnv });
+  return spawnSync(process.execPath, [TSX, "lib/cli/serve.ts"], { encoding: "utf8", timeout: 60_000, env: { PATH: process.env.PATH!, HOME: process.env.HOME!, ...env } as unknown as NodeJS.ProcessEnv });
 }
 
 describe("npm start outside the demo", () => {
@@ -19,7 +19,7 @@ describe("npm start outside the demo", () => {
   });
   it("the session secret and the audit key are never generated in production outside the demo", () => {
     const code = `import("./lib/auth/secret.ts").then(async (mod) => { const m = mod.authSecret ? mod : mod.default; try { m.authSecret(); console.log("generated"); } catch (e) { console.log(e.message); } const km = await import("./lib/audit/key.ts"); const k = km.auditKey ? km : km.default; try { k.auditKey(); console.log("generated"); } catch (e) { console.log(e.message); } })`;
-    const r = spawnSync(process.execPath, [TSX, "-e", code], { encoding: "utf8", env: { PATH: process.env.PATH!, HOME: process.env.HOME!, NODE_ENV: "production" } as NodeJS.ProcessEnv });
+    const r = spawnSync(process.execPath, [TSX, "-e", code], { encoding: "utf8", env: { PATH: process.env.PATH!, HOME: process.env.HOME!, NODE_ENV: "production" } as unknown as NodeJS.ProcessEnv });
     expect(r.stdout).toMatch(/NEXTAUTH_SECRET is not set/);
     expect(r.stdout).toMatch(/AUDIT_KEY is not set/);
     expect(r.stdout).not.toMatch(/generated/);
