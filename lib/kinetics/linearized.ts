@@ -1,6 +1,7 @@
 // First-order rate constants from straight lines: the linearized fit ln|y − A∞| on t, and, for an unknown A∞,
 // Guggenheim's and Kezdy–Swinbourne's methods over pairs of readings a fixed interval apart.
 import { aicc, durbinWatson, runsTest } from "./diagnostics";
+import { outOfRangeAtZero } from "./models/types";
 import { failedFit } from "./nls";
 import { fitLine, RegressionError, type LineFit } from "./regression";
 import type { FitResult, ParameterEstimate } from "./types";
@@ -43,7 +44,7 @@ function amplitudeAtZero(name: string, value: number, ts: readonly number[], lin
   const atFirst = Math.exp(line.intercept + line.slope * first);
   return {
     ok: false,
-    note: `${name} is the value at t = 0, ${first.toPrecision(4)} s before the first reading: extrapolated that far it is out of range, so it is not given. At the first reading the line gives an amplitude of ${atFirst.toPrecision(6)}.`,
+    note: outOfRangeAtZero(name, first, atFirst),
   };
 }
 

@@ -1,7 +1,7 @@
 // Two exponentials: y = c + a1·exp(−k1·t) + a2·exp(−k2·t), two parallel or consecutive first-order phases.
 import { nonlinearDescriptor } from "./nonlinear";
 import { firstOrderGridStart } from "./starts";
-import type { NonlinearModel } from "./types";
+import { outOfRangeAtZero, type NonlinearModel } from "./types";
 
 const LABELS = "k1 and k2 can be exchanged (with a1 and a2) without changing the fit: they are labelled so that k1 > k2.";
 
@@ -57,7 +57,7 @@ const model: NonlinearModel = {
     const notes: string[] = [];
     for (const [name, val, at] of [["a1", a1, v.a1!], ["a2", a2, v.a2!]] as const)
       if (!Number.isFinite(val))
-        notes.push(`${name} is an amplitude at t = 0, ${tref.toPrecision(4)} s before the first reading: extrapolated that far it is out of range, so it is not given. At the first reading it is ${at.toPrecision(6)}.`);
+        notes.push(outOfRangeAtZero(name, tref, at));
     const f = (g: number) => (Number.isFinite(g) ? g : 0);
     return {
       values: { a1: Number.isFinite(a1) ? a1 : null, k1: v.k1!, a2: Number.isFinite(a2) ? a2 : null, k2: v.k2!, c: v.c! },

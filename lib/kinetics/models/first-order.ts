@@ -1,7 +1,7 @@
 // First order: y = ainf + (a0 − ainf)·exp(−k·t), decay or rise to a plateau.
 import { nonlinearDescriptor } from "./nonlinear";
 import { decayFactors, firstOrderGridStart } from "./starts";
-import type { NonlinearModel } from "./types";
+import { outOfRangeAtZero, type NonlinearModel } from "./types";
 
 export const firstOrderFunction: NonlinearModel = {
   params: ["a0", "ainf", "k"],
@@ -45,7 +45,7 @@ export const firstOrderFunction: NonlinearModel = {
       ].map((row) => row.map((g) => (Number.isFinite(g) ? g : 0))),
       notes: ok
         ? []
-        : [`a0 is the value at t = 0, ${tref.toPrecision(4)} s before the first reading: extrapolated that far it is out of range, so it is not given. At the first reading the fitted value is ${v.a0!.toPrecision(6)}.`],
+        : [outOfRangeAtZero("a0", tref, v.a0!)],
     };
   },
 };

@@ -2,7 +2,7 @@
 import { compileFormula, FormulaError } from "../formula";
 import { fitNonlinear } from "../nls";
 import { FitSpecError } from "./nonlinear";
-import type { ModelDescriptor } from "./types";
+import { ranOff, type ModelDescriptor } from "./types";
 
 /** Below this r², a fit made from default start values is said to be poor. */
 const POOR_R2 = 0.9;
@@ -41,7 +41,7 @@ export const formulaModel: ModelDescriptor = {
     const off = r.parameters.filter((p) => !p.fixed && p.value !== null && Math.abs(p.value) > RUNAWAY_FACTOR * biggest);
     if (off.length) {
       out.converged = false;
-      out.message = `The fit did not settle: ${off.map((p) => `${p.name} ran off towards ${p.value! > 0 ? "+" : "−"}infinity (${p.value!.toPrecision(3)})`).join(", ")}. Give start values near the expected ones or fix a parameter.`;
+      out.message = `The fit did not settle: ${ranOff(off)}. Give start values near the expected ones or fix a parameter.`;
       out.parameters = out.parameters.map((p) => (p.fixed ? p : { ...p, value: null, se: null, ci95: null }));
       return out;
     }

@@ -7,7 +7,7 @@ import { curvatureT } from "../diagnostics";
 import { asFloat64, failedFit, fitNonlinear } from "../nls";
 import { tQuantile } from "../stats";
 import type { FitResult, ParameterEstimate } from "../types";
-import type { Dimension, FitSpec, ModelDescriptor, NonlinearModel } from "./types";
+import { ranOff, type Dimension, type FitSpec, type ModelDescriptor, type NonlinearModel } from "./types";
 
 export class FitSpecError extends Error {
   override name = "FitSpecError";
@@ -119,7 +119,7 @@ function runaway(r: FitResult, params: ModelDescriptor["params"], t: Float64Arra
     return scale !== null && Math.abs(p.value) > scale;
   });
   if (!off.length) return null;
-  return `The fit did not settle: ${off.map((p) => `${p.name} ran off towards ${p.value! > 0 ? "+" : "−"}infinity (${p.value!.toPrecision(3)})`).join(", ")}, far beyond anything these data can hold. Fix a parameter at a measured value, give start values, leave out a spike, or choose another model.`;
+  return `The fit did not settle: ${ranOff(off)}, far beyond anything these data can hold. Fix a parameter at a measured value, give start values, leave out a spike, or choose another model.`;
 }
 
 /** Says so when the data show no curvature, the usual reason a curved model cannot find its rate constant. */

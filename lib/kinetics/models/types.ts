@@ -107,3 +107,13 @@ export function fitUnits(quantity: "absorbance" | "concentration", conversion?: 
   if (quantity !== "concentration") return { y: "AU", t };
   return { y: conversion?.kind === "calibration" && conversion.unit ? conversion.unit : "mol L⁻¹", t };
 }
+
+/** Why a value at t = 0 is not given: t = 0 lies too far before the first reading for it to be represented. */
+export function outOfRangeAtZero(name: string, secondsBefore: number, atFirstReading: number): string {
+  return `${name} is the value at t = 0, ${secondsBefore.toPrecision(4)} s before the first reading: extrapolated that far it is out of range, so it is not given. At the first reading it is ${atFirstReading.toPrecision(6)}.`;
+}
+
+/** The parameters a fit ran off with, in words ("k ran off towards +infinity (3.2e+9)"). */
+export function ranOff(params: ReadonlyArray<{ name: string; value: number | null }>): string {
+  return params.map((p) => `${p.name} ran off towards ${p.value! > 0 ? "+" : "−"}infinity (${p.value!.toPrecision(3)})`).join(", ");
+}
