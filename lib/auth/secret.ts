@@ -16,6 +16,8 @@ export function keysMayBeGenerated(): boolean {
 export function authSecret(): string {
   if (process.env.NEXTAUTH_SECRET) return process.env.NEXTAUTH_SECRET;
   if (cached) return cached;
+  // `next build` loads the route modules to collect page data; nothing is signed then, and nothing may be written.
+  if (process.env.NEXT_PHASE === "phase-production-build") return "build-time: never used to sign a session";
   if (!keysMayBeGenerated())
     throw new Error("NEXTAUTH_SECRET is not set. Set it to a long random value (for example: openssl rand -base64 32) before starting Halflight.");
   const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
