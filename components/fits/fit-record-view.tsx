@@ -102,7 +102,6 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
                 <Th>Model</Th>
                 <Th>Parameter</Th>
                 <Th numeric>Value ± SE</Th>
-                <Th>Unit</Th>
                 <Th numeric>95 % CI</Th>
               </tr>
             </thead>
@@ -112,8 +111,11 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
                   <tr key={`${m.model}-${p.name}`}>
                     <Td>{m.model}</Td>
                     <Td className="font-mono">{p.name}</Td>
-                    <Td numeric>{p.value === null ? (m.result.converged ? "not given" : "no fit") : formatWithUncertainty(p.value, p.se)}{p.held_from ? ` (from ${p.held_from})` : p.fixed ? " (fixed)" : ""}</Td>
-                    <Td data-unit={`${m.model}.${p.name}`}>{recordParameterUnit(m.model, p.name, units) || "—"}</Td>
+                    <Td numeric>
+                      {p.value === null ? (m.result.converged ? "not given" : "no fit") : formatWithUncertainty(p.value, p.se)}
+                      {p.value !== null && <span data-unit={`${m.model}.${p.name}`}> {recordParameterUnit(m.model, p.name, units)}</span>}
+                      {p.held_from ? ` (from ${p.held_from})` : p.fixed ? " (fixed)" : ""}
+                    </Td>
                     <Td numeric>{p.ci95 ? `${formatNumber(p.ci95[0], 4)} … ${formatNumber(p.ci95[1], 4)}` : "—"}</Td>
                   </tr>
                 )),
