@@ -200,10 +200,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const show = (idx: number[]) => idx.filter((_, j) => j % stride === 0);
   const wFrom = num(windowFrom),
     wTo = num(windowTo);
-  const linear = outcome.models.find((m) => m.model === "linearized");
-  const linAinf = linear?.result.parameters.find((p) => p.name === "ainf")?.value ?? null;
-  const linK = linear?.result.parameters.find((p) => p.name === "k")?.value ?? null;
-  const linA0 = linear?.result.parameters.find((p) => p.name === "a0")?.value ?? null;
+  const linearView = outcome.linearized_view;
 
   return (
     <div className="grid gap-6 xl:grid-cols-[1fr_22rem]">
@@ -305,13 +302,13 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           </div>
           <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
             <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Linearized view</h2>
-            {linear && linAinf !== null && linK !== null && linA0 !== null ? (
+            {linearView ? (
               <Plot
                 label="ln|y − A∞| against time"
                 height={220}
                 data={[
-                  { type: "scatter", mode: "markers", name: "ln|y − A∞|", x: incIdx.filter((i) => Math.abs(points.y[i]! - linAinf) > 0).map((i) => points.t[i]! / tScale), y: incIdx.filter((i) => Math.abs(points.y[i]! - linAinf) > 0).map((i) => Math.log(Math.abs(conv(points.y[i]!) - linAinf))), marker: { size: 5, color: colour } },
-                  { type: "scatter", mode: "lines", name: "line", x: [points.t[incIdx[0] ?? 0]! / tScale, points.t[incIdx.at(-1) ?? 0]! / tScale], y: [points.t[incIdx[0] ?? 0]!, points.t[incIdx.at(-1) ?? 0]!].map((t) => Math.log(Math.abs(linA0 - linAinf)) - linK * t), line: { color: "#d55e00" } },
+                  { type: "scatter", mode: "markers", name: "ln|y − A∞|", x: Array.from(linearView.t, (v) => v / tScale), y: Array.from(linearView.ln), marker: { size: 5, color: colour } },
+                  { type: "scatter", mode: "lines", name: "line", x: linearView.line.t.map((v) => v / tScale), y: linearView.line.ln, line: { color: "#d55e00" } },
                 ] as never}
                 layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "ln|y − A∞|" } } } as never}
               />

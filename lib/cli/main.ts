@@ -75,7 +75,7 @@ export function seriesForCli(p: ParsedExport) {
 }
 
 export function fitForCli(r: FitResult, series: string) {
-  const { residuals: _r, fitted: _f, ...rest } = r;
+  const { residuals: _r, fitted: _f, line_x: _x, ...rest } = r;
   return { ...rest, series, engine: ENGINE_VERSION };
 }
 

@@ -24,10 +24,10 @@ export interface MethodEvaluation extends CriteriaEvaluation {
   method: { id: number; record_id: number; version: number; name: string; content_hash: string };
 }
 
-export type StoredResults = Omit<SeriesFitOutcome, "curves" | "included"> & { excluded_indices: number[]; method_evaluation?: MethodEvaluation };
+export type StoredResults = Omit<SeriesFitOutcome, "curves" | "included" | "linearized_view"> & { excluded_indices: number[]; method_evaluation?: MethodEvaluation };
 
 function storedResults(out: SeriesFitOutcome): StoredResults {
-  const { curves: _c, included, ...rest } = out;
+  const { curves: _c, included, linearized_view: _v, ...rest } = out;
   return { ...rest, excluded_indices: included.flatMap((inc, i) => (inc ? [] : [i])) };
 }
 

@@ -34,6 +34,7 @@ function lineResult(model: string, line: LineFit, parameters: ParameterEstimate[
     weighting,
     residuals: Float64Array.from(line.residuals),
     fitted: Float64Array.from(xs, (x) => line.intercept + line.slope * x),
+    line_x: Float64Array.from(xs),
   };
 }
 

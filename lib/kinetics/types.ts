@@ -47,6 +47,8 @@ export interface FitResult {
   /** y − fitted, in data units, one per point (typed, so a million points cost 8 MB, not a JS array). */
   residuals: Float64Array;
   fitted: Float64Array;
+  /** Straight-line methods: the line's abscissa per point of `fitted` (time for linearized and Guggenheim fits). */
+  line_x?: Float64Array;
 }
 
 export interface ModelFunction {

@@ -57,6 +57,8 @@ export interface SeriesFitOutcome {
   notes: string[];
   /** Residuals and fitted values per model, over the included points (for plots; not stored in records). */
   curves: Record<string, { t: Float64Array; fitted: Float64Array; residuals: Float64Array }>;
+  /** The linearized fit as a plot: ln|y − A∞| of the points it used against t, and its line (not stored in records). */
+  linearized_view: { t: Float64Array; ln: Float64Array; line: { t: [number, number]; ln: [number, number] } } | null;
 }
 
 export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: SeriesFitOptions): SeriesFitOutcome {
@@ -91,6 +93,7 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
   const tt = Float64Array.from(t),
     yy = Float64Array.from(y);
   const curves: SeriesFitOutcome["curves"] = {};
+  let linearizedView: SeriesFitOutcome["linearized_view"] = null;
   const raw = o.models.map((model) => {
     const d = modelById(model);
     const params = !d || d.family === "formula" ? null : d.params.map((p) => p.name);
@@ -111,7 +114,9 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
       if (!(e instanceof FitSpecError)) throw e;
       r = failedFit(model, [], tt.length, `No fit: ${e.message}`);
     }
-    const { residuals, fitted, ...rest } = r;
+    const { residuals, fitted, line_x, ...rest } = r;
+    if (model === "linearized" && r.converged && line_x && line_x.length > 1)
+      linearizedView = { t: line_x, ln: fitted.map((f, i) => f + residuals[i]!), line: { t: [line_x[0]!, line_x[line_x.length - 1]!], ln: [fitted[0]!, fitted[fitted.length - 1]!] } };
     if (o.conversion?.kind === "calibration" && d?.kScalesWithConcentration) {
       const cal = o.conversion;
       rest.parameters = rest.parameters.map((p) =>
@@ -146,7 +151,7 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
   }
   const disagreement = linearizedDisagreement(models, o.logWeights ?? false);
   if (disagreement) notes.push(disagreement);
-  return { n: t.length, included, quantity: o.conversion ? "concentration" : "absorbance", reading_range: readingRange, models, favoured, notes, curves };
+  return { n: t.length, included, quantity: o.conversion ? "concentration" : "absorbance", reading_range: readingRange, models, favoured, notes, curves, linearized_view: linearizedView };
 }
 
 /** Beyond this many combined standard errors, the linearized and the nonlinear k disagree. */

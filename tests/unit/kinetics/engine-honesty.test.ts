@@ -175,3 +175,17 @@ describe("two-point Eyring from the line through the two points", () => {
     expect(Math.abs(a.eyring.dS.value - dS)).toBeLessThan(1e-6);
   });
 });
+
+describe("plot-ready results from the engine", () => {
+  it("the linearized view is ln|y − A∞| of the points the line used, and the line's ends (definition of the method)", () => {
+    const d = traces(11);
+    const o = fitSeriesWithOptions(t, d.first, { models: ["linearized", "first-order"] });
+    const lin = o.models.find((m) => m.model === "linearized")!.result;
+    const ainf = lin.parameters.find((q) => q.name === "ainf")!.value!;
+    const k = lin.parameters.find((q) => q.name === "k")!.value!;
+    const v = o.linearized_view!;
+    v.t.forEach((ti, i) => expect(v.ln[i]).toBeCloseTo(Math.log(Math.abs(d.first[t.indexOf(ti)]! - ainf)), 12));
+    expect((v.line.ln[1] - v.line.ln[0]) / (v.line.t[1] - v.line.t[0])).toBeCloseTo(-k, 12);
+    expect(fitSeriesWithOptions(t, d.first, { models: ["first-order"] }).linearized_view).toBeNull();
+  });
+});
