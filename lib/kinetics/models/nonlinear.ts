@@ -107,7 +107,10 @@ function runaway(r: FitResult, params: ModelDescriptor["params"], t: Float64Arra
     ymax = Math.max(ymax, y[i]!);
     yabs = Math.max(yabs, Math.abs(y[i]!));
   }
-  const sorted = Float64Array.from(t).sort();
+  // Readings usually come in time order: only an unordered series pays for a sorted copy.
+  let ordered = true;
+  for (let i = 1; i < t.length && ordered; i++) if (t[i]! < t[i - 1]!) ordered = false;
+  const sorted = ordered ? t : Float64Array.from(t).sort();
   let dt = Infinity;
   for (let i = 1; i < sorted.length; i++) if (sorted[i]! > sorted[i - 1]!) dt = Math.min(dt, sorted[i]! - sorted[i - 1]!);
   if (!Number.isFinite(dt)) return null;
