@@ -93,22 +93,35 @@ export function curvatureT(t: ArrayLike<number>, y: ArrayLike<number>): number |
   const half = (tmax - tmin) / 2;
   if (!(half > 0)) return null;
   const mid = tmin + half;
-  const u = new Float64Array(n);
+  // Sums for the normal equations of [1, u, u² − q] in two passes over the data, no arrays (series may be long).
   let q = 0;
   for (let i = 0; i < n; i++) {
-    u[i] = (t[i]! - mid) / half;
-    q += u[i]! * u[i]!;
+    const u = (t[i]! - mid) / half;
+    q += u * u;
   }
   q /= n;
-  // Normal equations of [1, u, u² − mean(u²)]: well conditioned on [−1, 1].
-  const X = [new Float64Array(n).fill(1), u, u.map((v) => v * v - q)];
-  const A = [0, 1, 2].map((a) => [0, 1, 2].map((b) => { let s = 0; for (let i = 0; i < n; i++) s += X[a]![i]! * X[b]![i]!; return s; }));
-  const g = [0, 1, 2].map((a) => { let s = 0; for (let i = 0; i < n; i++) s += X[a]![i]! * y[i]!; return s; });
+  const A = [
+    [0, 0, 0],
+    [0, 0, 0],
+    [0, 0, 0],
+  ];
+  const g = [0, 0, 0];
+  for (let i = 0; i < n; i++) {
+    const u = (t[i]! - mid) / half;
+    const x = [1, u, u * u - q];
+    for (let a = 0; a < 3; a++) {
+      g[a]! += x[a]! * y[i]!;
+      for (let b = 0; b < 3; b++) A[a]![b]! += x[a]! * x[b]!;
+    }
+  }
   const inv = invert3(A);
   if (!inv) return null;
   const b = [0, 1, 2].map((a) => inv[a]![0]! * g[0]! + inv[a]![1]! * g[1]! + inv[a]![2]! * g[2]!);
   let ssr = 0;
-  for (let i = 0; i < n; i++) ssr += (y[i]! - b[0]! - b[1]! * X[1]![i]! - b[2]! * X[2]![i]!) ** 2;
+  for (let i = 0; i < n; i++) {
+    const u = (t[i]! - mid) / half;
+    ssr += (y[i]! - b[0]! - b[1]! * u - b[2]! * (u * u - q)) ** 2;
+  }
   const s2 = ssr / (n - 3);
   const se = Math.sqrt(s2 * inv[2]![2]!);
   if (!(se > 0)) return b[2] === 0 ? 0 : null;

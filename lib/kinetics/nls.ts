@@ -288,24 +288,33 @@ function outlyingPoints(
 ): string | null {
   const pf = lm.freeIndex.length;
   if (!lm.inverseHessian || dof < 3 || !(s2 > 0)) return null;
-  const J = new Float64Array(n * problem.p);
-  problem.jacobian(lm.x, J);
   const r = new Float64Array(n);
   problem.residuals(lm.x, r);
-  const H = lm.inverseHessian;
-  const limit = Math.max(3, tQuantile(1 - 0.025 / n, dof));
   const s = Math.sqrt(s2);
+  // No standardized residual beyond 2 on a series of 20 points or more: reaching the limit (at least 3) would need a
+  // leverage above 5/9, which kinetic traces of that length do not have, so the leverages are not computed.
+  let worst = 0;
+  for (let i = 0; i < n; i++) worst = Math.max(worst, Math.abs(r[i]!));
+  if (n >= 20 && worst / s < 2) return null;
+  const limit = Math.max(3, tQuantile(1 - 0.025 / n, dof));
+  // Leverages h_ii = J_i (JᵀJ)⁻¹ J_iᵀ; on long series (over LEVERAGE_UP_TO points) every h_ii is near p/n and the
+  // standardized residual e_i/s is used, sparing a second Jacobian of the whole series.
+  const J = n <= LEVERAGE_UP_TO ? new Float64Array(n * problem.p) : null;
+  if (J) problem.jacobian(lm.x, J);
+  const H = lm.inverseHessian;
   const found: Array<{ i: number; z: number }> = [];
   const row = new Float64Array(pf);
   for (let i = 0; i < n; i++) {
-    for (let a = 0; a < pf; a++) row[a] = J[lm.freeIndex[a]! * n + i]!;
     let h = 0;
-    for (let a = 0; a < pf; a++) {
-      let q = 0;
-      for (let b = 0; b < pf; b++) q += H[a * pf + b]! * row[b]!;
-      h += row[a]! * q;
+    if (J) {
+      for (let a = 0; a < pf; a++) row[a] = J[lm.freeIndex[a]! * n + i]!;
+      for (let a = 0; a < pf; a++) {
+        let q = 0;
+        for (let b = 0; b < pf; b++) q += H[a * pf + b]! * row[b]!;
+        h += row[a]! * q;
+      }
+      if (!(h < 1)) continue;
     }
-    if (!(h < 1)) continue;
     // residuals() gives fitted − observed (weighted); the reader's residual is observed − fitted.
     const z = -r[i]! / (s * Math.sqrt(1 - h));
     if (Math.abs(z) > limit) found.push({ i, z });
@@ -315,6 +324,9 @@ function outlyingPoints(
   const named = found.slice(0, 5).map(({ i, z }) => `t = ${formatTime(t[i]! + origin)} s (r = ${z.toFixed(1)})`);
   return `${found.length === 1 ? "One reading lies" : `${found.length} readings lie`} far off the fitted curve (studentized residual beyond ±${limit.toFixed(1)}): ${named.join(", ")}${found.length > 5 ? ", …" : ""}. A single such point can move k by several per cent: check it, and exclude it with a reason if it is an artefact.`;
 }
+
+/** Up to this many points, outlying readings are judged with their leverages (studentized residuals). */
+const LEVERAGE_UP_TO = 20_000;
 
 function formatTime(v: number): string {
   return Math.abs(v) >= 1e6 ? v.toFixed(1) : String(Number(v.toPrecision(6)));
