@@ -111,3 +111,31 @@ describe("any file name downloads (RFC 6266 / RFC 8187 filename*)", () => {
     expect(attachment('a"b\\c.csv')).toBe(`attachment; filename="a_b_c.csv"; filename*=UTF-8''a%22b%5Cc.csv`);
   });
 });
+
+describe("bodies are bounded in shape (strict schemas, counted arrays and records, no control characters)", () => {
+  const base = () => ({ runId, seriesId, title: "shape", options: { models: ["first-order"] } });
+  const post = async (body: unknown) => postFit({ "content-type": "application/json" }, JSON.stringify(body));
+  it("unknown keys in the options or the body are refused with 422 and nothing is stored", async () => {
+    const before = await fits();
+    const junk = Object.fromEntries(Array.from({ length: 500 }, (_, i) => [`k${i}`, i]));
+    expect((await post({ ...base(), options: { models: ["first-order"], ...junk } })).status).toBe(422);
+    expect((await post({ ...base(), extra: true })).status).toBe(422);
+    expect(await fits()).toBe(before);
+  });
+  it("more than 12 fixed values, or a name that is not a parameter name, is refused", async () => {
+    const fixed = Object.fromEntries(Array.from({ length: 13 }, (_, i) => [`p${i}`, 1]));
+    const r = await post({ ...base(), options: { models: ["first-order"], fixed } });
+    expect(r.status).toBe(422);
+    expect(JSON.stringify(r.body)).toMatch(/At most 12 parameter values/);
+    expect((await post({ ...base(), options: { models: ["first-order"], starts: { "a b": 1 } } })).status).toBe(422);
+  });
+  it("more than 10,000 point-by-point exclusions are refused (a window does that job)", async () => {
+    const exclusions = Array.from({ length: 10_001 }, (_, i) => ({ index: i, reason: "bad" }));
+    expect((await post({ ...base(), options: { models: ["first-order"], exclusions } })).status).toBe(422);
+  });
+  it("a title with a control character (a NUL) is refused with its field named", async () => {
+    const r = await post({ ...base(), title: "cell\u0000 1" });
+    expect(r.status).toBe(422);
+    expect(JSON.stringify(r.body)).toMatch(/control characters/);
+  });
+});
