@@ -21,7 +21,9 @@ const csp = [
 const securityHeaders = [
   { key: "Content-Security-Policy", value: csp },
   { key: "X-Content-Type-Options", value: "nosniff" },
-  { key: "Referrer-Policy", value: "no-referrer" },
+  // same-origin, not no-referrer: under no-referrer browsers send "Origin: null" with same-origin form posts, and the
+  // server actions' own origin check then has nothing to compare; other sites still get no referrer (share tokens).
+  { key: "Referrer-Policy", value: "same-origin" },
   { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=(), payment=(), usb=(), interest-cohort=()" },
   { key: "X-Frame-Options", value: "DENY" },
   ...(https ? [{ key: "Strict-Transport-Security", value: "max-age=31536000; includeSubDomains" }] : []),

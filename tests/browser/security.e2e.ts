@@ -32,7 +32,7 @@ describe("security headers", () => {
       const h = res.headers;
       expect(h.get("content-security-policy")).toMatch(/default-src 'self'.*frame-ancestors 'none'/);
       expect(h.get("x-content-type-options")).toBe("nosniff");
-      expect(h.get("referrer-policy")).toBe("no-referrer");
+      expect(h.get("referrer-policy")).toBe("same-origin");
       expect(h.get("permissions-policy")).toMatch(/camera=\(\)/);
       expect(h.get("x-frame-options")).toBe("DENY");
     });
