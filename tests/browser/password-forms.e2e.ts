@@ -105,5 +105,7 @@ describe("what left the browser and what the server wrote", () => {
     expect(decoded.filter((u) => /[?&]password=/i.test(u))).toEqual([]);
     const log = fs.readFileSync(serverLog, "utf8");
     for (const s of secrets) expect(log.includes(s)).toBe(false);
+    // Every form post carried its Origin, so the server actions' own same-origin check had something to compare.
+    expect(log).not.toMatch(/Missing `origin` header/);
   });
 });
