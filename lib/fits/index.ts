@@ -19,6 +19,16 @@ export { canonicalJson };
 
 const sha = (s: string | Buffer) => createHash("sha256").update(s).digest("hex");
 
+/** A series' data hash: SHA-256 of its stored time and value arrays. Saving and verifying both use it. */
+export function seriesDataSha(tF64: Uint8Array, yF64: Uint8Array): string {
+  return sha(Buffer.concat([tF64, yF64]));
+}
+
+/** A fit version's content hash over its data hash, options, results and engine. Saving and verifying both use it. */
+export function fitContentHash(c: { data_sha256: string; options: unknown; results: unknown; engine: string }): string {
+  return sha(canonicalJson({ data_sha256: c.data_sha256, options: c.options, results: c.results, engine: c.engine }));
+}
+
 /** A fit of a run with a method: the method version that judged it and the verdict per criterion. */
 export interface MethodEvaluation extends CriteriaEvaluation {
   method: { id: number; record_id: number; version: number; name: string; content_hash: string };
@@ -50,7 +60,7 @@ export function primaryOf(results: StoredResults) {
 export async function computeFit(db: Knex, labId: number, runId: number, seriesId: number, options: FitOptions) {
   const { row, t, y } = await readSeries(db, labId, runId, seriesId);
   const outcome = fitSeriesWithOptions(t, y, options);
-  const dataSha = sha(Buffer.concat([row.t_f64, row.y_f64]));
+  const dataSha = seriesDataSha(row.t_f64, row.y_f64);
   return { row, t, y, outcome, dataSha };
 }
 
@@ -91,7 +101,7 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
     const evaluation = evaluateCriteria(outcome, method.definition.criteria, method.definition.models);
     results.method_evaluation = { method: { id: method.id, record_id: method.record_id, version: method.version, name: method.name, content_hash: method.content_hash }, ...evaluation };
   }
-  const contentHash = sha(canonicalJson({ data_sha256: dataSha, options: input.options, results, engine: ENGINE_VERSION }));
+  const contentHash = fitContentHash({ data_sha256: dataSha, options: input.options, results, engine: ENGINE_VERSION });
   if (previous && previous.content_hash === contentHash) {
     return { id: previous.id, record_id: previous.record_id!, version: previous.version, content_hash: contentHash, unchanged: true };
   }
@@ -180,6 +190,7 @@ export async function fitVersions(db: Knex, labId: number, id: number) {
 /** Every version of a fit record, each with what changed from the one before (for callers that hold the record). */
 export async function versionsOfRecord(db: Knex, labId: number, recordId: number) {
   const versions = await listVersions(db, labId, recordId);
+  const options = versions.map((v) => JSON.parse(v.options) as FitOptions);
   return versions.map((v, i) => ({
     id: v.id,
     version: v.version,
@@ -190,8 +201,8 @@ export async function versionsOfRecord(db: Knex, labId: number, recordId: number
     k: v.k_value,
     k_se: v.k_se,
     /** k's unit under this version's primary model and conversion. */
-    k_unit: recordParameterUnit(v.primary_model, "k", fitUnits(parseResultsQuantity(v.results), (JSON.parse(v.options) as FitOptions).conversion)),
-    changes: i === 0 ? ["first version"] : describeChanges(JSON.parse(versions[i - 1]!.options) as FitOptions, JSON.parse(v.options) as FitOptions),
+    k_unit: recordParameterUnit(v.primary_model, "k", fitUnits(parseResultsQuantity(v.results), options[i]!.conversion)),
+    changes: i === 0 ? ["first version"] : describeChanges(options[i - 1]!, options[i]!),
   }));
 }
 

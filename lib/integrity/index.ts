@@ -6,7 +6,8 @@ import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { recordAudit, verifyAuditTrail, type AuditVerification } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
-import { canonicalJson } from "@/lib/fits/canonical";
+import { fitContentHash, seriesDataSha } from "@/lib/fits";
+import { studyContentHash } from "@/lib/studies";
 
 const sha = (b: string | Buffer) => createHash("sha256").update(b).digest("hex");
 
@@ -21,12 +22,12 @@ export async function verifyFitVersion(db: Knex, labId: number, fitId: number): 
   if (!f) return { ok: false, problems: [`Fit ${fitId} is not in this lab.`] };
   const problems: string[] = [];
   const s = await db("series").where({ lab_id: labId, id: f.series_id }).first("t_f64", "y_f64");
-  const dataSha = s ? sha(Buffer.concat([Buffer.from(s.t_f64), Buffer.from(s.y_f64)])) : null;
+  const dataSha = s ? seriesDataSha(s.t_f64, s.y_f64) : null;
   if (!s) problems.push("The series behind this fit is missing.");
   else if (dataSha !== f.data_sha256) problems.push("The stored points behind this fit have changed since it was saved (their SHA-256 differs).");
   let recomputed: string | null = null;
   try {
-    recomputed = sha(canonicalJson({ data_sha256: f.data_sha256, options: JSON.parse(f.options), results: JSON.parse(f.results), engine: f.engine_version }));
+    recomputed = fitContentHash({ data_sha256: f.data_sha256, options: JSON.parse(f.options), results: JSON.parse(f.results), engine: f.engine_version });
   } catch {
     problems.push("The stored options or results cannot be read.");
   }
@@ -61,7 +62,7 @@ export async function verifyMethodVersion(db: Knex, labId: number, id: number): 
 export async function verifyStudyVersion(db: Knex, labId: number, id: number): Promise<RecordIntegrity> {
   const s = await db("studies").where({ lab_id: labId, id }).first("members", "options", "results", "engine_version", "content_hash");
   if (!s) return { ok: false, problems: [`Study ${id} is not in this lab.`] };
-  const h = sha(canonicalJson({ members: JSON.parse(s.members), options: JSON.parse(s.options), results: JSON.parse(s.results), engine: s.engine_version }));
+  const h = studyContentHash({ members: JSON.parse(s.members), options: JSON.parse(s.options), results: JSON.parse(s.results), engine: s.engine_version });
   return h === s.content_hash ? { ok: true, problems: [] } : { ok: false, problems: ["The stored study no longer gives its content hash: it was changed after saving."] };
 }
 

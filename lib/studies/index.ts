@@ -119,6 +119,11 @@ export function computeStudy(kind: "temperature" | "excess", members: ResolvedMe
   }
 }
 
+/** A study version's content hash over its members, options, results and engine. Saving and verifying both use it. */
+export function studyContentHash(c: { members: unknown; options: unknown; results: unknown; engine: string }): string {
+  return createHash("sha256").update(canonicalJson({ members: c.members, options: c.options, results: c.results, engine: c.engine })).digest("hex");
+}
+
 async function storeVersion(
   db: Knex,
   user: SignedInUser,
@@ -126,7 +131,7 @@ async function storeVersion(
 ) {
   const resolved = await resolveMembers(db, user.labId, input.members);
   const results = computeStudy(input.kind, resolved, input.options);
-  const contentHash = createHash("sha256").update(canonicalJson({ members: resolved, options: input.options, results, engine: ENGINE_VERSION })).digest("hex");
+  const contentHash = studyContentHash({ members: resolved, options: input.options, results, engine: ENGINE_VERSION });
   return writeVersion(db, async (trx) => {
     const version = await claimNextVersion(trx, "studies", user.labId, input.previous ?? null);
     const id = await insertStudyVersion(trx, {
