@@ -2,11 +2,8 @@
 // trail unnoticed. AUDIT_KEY (at least 32 characters) in production; for the demo and development one is generated
 // once into HALFLIGHT_KEY_DIR (default ~/.halflight), never beside the database file; a production start without it
 // is a clear error.
-import { createHmac, randomBytes } from "node:crypto";
-import fs from "node:fs";
-import os from "node:os";
-import path from "node:path";
-import { keysMayBeGenerated } from "@/lib/auth/secret";
+import { createHmac } from "node:crypto";
+import { generatedKey, keysMayBeGenerated } from "@/lib/auth/secret";
 
 let cached: Buffer | undefined;
 
@@ -19,20 +16,7 @@ export function auditKey(): Buffer {
     return cached;
   }
   if (!keysMayBeGenerated()) throw new Error("AUDIT_KEY is not set. Set it to a long random value kept apart from the data (for example: openssl rand -base64 32) before starting Halflight.");
-  const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
-  const file = path.join(dir, "audit.key");
-  try {
-    cached = Buffer.from(fs.readFileSync(file, "utf8").trim(), "utf8");
-  } catch {
-    fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
-    try {
-      fs.writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600, flag: "wx" });
-    } catch (e) {
-      // Another process made it first: use theirs.
-      if ((e as NodeJS.ErrnoException).code !== "EEXIST") throw e;
-    }
-    cached = Buffer.from(fs.readFileSync(file, "utf8").trim(), "utf8");
-  }
+  cached = Buffer.from(generatedKey("audit.key"), "utf8");
   return cached;
 }
 

@@ -13,6 +13,20 @@ export function keysMayBeGenerated(): boolean {
   return process.env.HALFLIGHT_DEMO === "1" || process.env.NODE_ENV !== "production";
 }
 
+/** A key generated once into HALFLIGHT_KEY_DIR (default ~/.halflight) and read from there afterwards; when two
+ * processes generate it at once, the first file written wins and both read it. */
+export function generatedKey(fileName: string): string {
+  const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
+  const file = path.join(dir, fileName);
+  fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
+  try {
+    fs.writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600, flag: "wx" });
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code !== "EEXIST") throw e;
+  }
+  return fs.readFileSync(file, "utf8").trim();
+}
+
 export function authSecret(): string {
   if (process.env.NEXTAUTH_SECRET) return process.env.NEXTAUTH_SECRET;
   if (cached) return cached;
@@ -20,14 +34,6 @@ export function authSecret(): string {
   if (process.env.NEXT_PHASE === "phase-production-build") return "build-time: never used to sign a session";
   if (!keysMayBeGenerated())
     throw new Error("NEXTAUTH_SECRET is not set. Set it to a long random value (for example: openssl rand -base64 32) before starting Halflight.");
-  const dir = process.env.HALFLIGHT_KEY_DIR ?? path.join(os.homedir(), ".halflight");
-  const file = path.join(dir, "session.key");
-  fs.mkdirSync(dir, { recursive: true, mode: 0o700 });
-  try {
-    fs.writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600, flag: "wx" });
-  } catch (e) {
-    if ((e as NodeJS.ErrnoException).code !== "EEXIST") throw e;
-  }
-  cached = fs.readFileSync(file, "utf8").trim();
+  cached = generatedKey("session.key");
   return cached;
 }
