@@ -1,5 +1,6 @@
 // The audit trail: rows are only ever inserted (the database refuses updates and deletes).
 import type { Db } from "@/db";
+import { anyJson, readJson } from "@/db/json";
 import type { DbAuditEventRow, DbAuditHeadRow } from "@/db/tables";
 
 export type NewAuditRow = Omit<DbAuditEventRow, "id">;
@@ -14,7 +15,9 @@ export async function insertAuditRow(db: Db, row: NewAuditRow): Promise<DbAuditE
   return saved as DbAuditEventRow;
 }
 
-export type AuditRowWithActor = DbAuditEventRow & { actor_name: string | null };
+/** An audit row as listed: its old and new values parsed (any JSON; the chain's hash covers their text). */
+export type AuditRowWithActor = Omit<DbAuditEventRow, "old_values" | "new_values"> & { actor_name: string | null; old_values: unknown; new_values: unknown };
+const values = (text: string | null, id: number, which: string) => (text ? readJson(anyJson, text, `${which} of audit event ${id}`) : null);
 
 export async function listAuditRows(
   db: Db,
@@ -32,7 +35,8 @@ export async function listAuditRows(
   if (opts.to) q.andWhere("a.at", "<=", opts.to);
   if (opts.objectType) q.andWhere("a.object_type", opts.objectType);
   if (opts.objectId) q.andWhere("a.object_id", opts.objectId);
-  return q;
+  const rows: Array<DbAuditEventRow & { actor_name: string | null }> = await q;
+  return rows.map((r) => ({ ...r, old_values: values(r.old_values, r.id, "old values"), new_values: values(r.new_values, r.id, "new values") }));
 }
 
 /** Every event of one object, oldest first (a record's report prints them all). */

@@ -2,6 +2,17 @@
 import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbFitRow } from "@/db/tables";
+import { objectWith, readJson } from "@/db/json";
+import type { StoredResults } from "@/lib/fits";
+import { fitOptionsSchema, type FitOptions } from "@/lib/schemas/fits";
+
+/** A fit version as read: its JSON columns parsed and checked (options by the schema that accepted them). */
+export type FitRow = Omit<DbFitRow, "options" | "results"> & { options: FitOptions; results: StoredResults };
+const storedResults = objectWith<StoredResults>("quantity", "models", "excluded_indices");
+
+export function decodeFit<R extends DbFitRow>(row: R): Omit<R, "options" | "results"> & FitRow {
+  return { ...row, options: readJson(fitOptionsSchema, row.options, `options of fit ${row.id}`), results: readJson(storedResults, row.results, `results of fit ${row.id}`) };
+}
 
 export type NewFit = Omit<DbFitRow, "id">;
 
@@ -12,21 +23,24 @@ export async function insertFitVersion(db: Db, row: NewFit): Promise<number> {
   return id;
 }
 
-export async function getFit(db: Db, labId: number, id: number): Promise<(DbFitRow & { author_name: string | null; run_name: string; series_name: string }) | undefined> {
-  return db("fits as f")
+export async function getFit(db: Db, labId: number, id: number): Promise<(FitRow & { author_name: string | null; run_name: string; series_name: string }) | undefined> {
+  const row: (DbFitRow & { author_name: string | null; run_name: string; series_name: string }) | undefined = await db("fits as f")
     .join("runs as r", "r.id", "f.run_id")
     .join("series as s", "s.id", "f.series_id")
     .leftJoin("users as u", "u.id", "f.author_id")
     .where({ "f.lab_id": labId, "f.id": id })
     .first("f.*", "u.display_name as author_name", "r.name as run_name", "s.name as series_name");
+  return row && decodeFit(row);
 }
 
-export async function listVersions(db: Db, labId: number, recordId: number): Promise<Array<DbFitRow & { author_name: string | null }>> {
-  return db("fits as f").leftJoin("users as u", "u.id", "f.author_id").where({ "f.lab_id": labId, "f.record_id": recordId }).orderBy("f.version").select("f.*", "u.display_name as author_name");
+export async function listVersions(db: Db, labId: number, recordId: number): Promise<Array<FitRow & { author_name: string | null }>> {
+  const rows: Array<DbFitRow & { author_name: string | null }> = await db("fits as f").leftJoin("users as u", "u.id", "f.author_id").where({ "f.lab_id": labId, "f.record_id": recordId }).orderBy("f.version").select("f.*", "u.display_name as author_name");
+  return rows.map(decodeFit);
 }
 
-export async function latestVersion(db: Db, labId: number, recordId: number): Promise<DbFitRow | undefined> {
-  return db("fits").where({ lab_id: labId, record_id: recordId }).orderBy("version", "desc").first();
+export async function latestVersion(db: Db, labId: number, recordId: number): Promise<FitRow | undefined> {
+  const row: DbFitRow | undefined = await db("fits").where({ lab_id: labId, record_id: recordId }).orderBy("version", "desc").first();
+  return row && decodeFit(row);
 }
 
 export interface FitListFilter {

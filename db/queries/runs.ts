@@ -1,5 +1,7 @@
 // Raw files, runs and series. Points travel as little-endian float64 BLOBs (one per series and axis).
 import { insertedId } from "./ids";
+import { jsonObject, readJson } from "@/db/json";
+import { z } from "zod";
 import type { Db } from "@/db";
 import type { DbRawFileRow, DbRunRow, DbSeriesRow } from "@/db/tables";
 
@@ -102,21 +104,28 @@ export async function listRuns(db: Db, f: RunListFilter): Promise<{ rows: RunLis
   return { rows: rows as RunListRow[], total: Number(totalRow?.n ?? 0) };
 }
 
-export async function getRun(db: Db, labId: number, id: number): Promise<(DbRunRow & { raw_file_name: string; raw_file_sha256: string; raw_file_size: number; created_by_name: string | null }) | undefined> {
-  return db("runs as r")
+const runWarnings = z.array(z.string());
+const lineNumbers = z.array(z.number().int());
+
+/** A run as read: its metadata and warnings parsed and checked. */
+export async function getRun(db: Db, labId: number, id: number): Promise<(Omit<DbRunRow, "metadata" | "warnings"> & { metadata: Record<string, unknown>; warnings: string[]; raw_file_name: string; raw_file_sha256: string; raw_file_size: number; created_by_name: string | null }) | undefined> {
+  const r: (DbRunRow & { raw_file_name: string; raw_file_sha256: string; raw_file_size: number; created_by_name: string | null }) | undefined = await db("runs as r")
     .join("raw_files as f", "f.id", "r.raw_file_id")
     .leftJoin("users as u", "u.id", "r.created_by")
     .where({ "r.lab_id": labId, "r.id": id })
     .first("r.*", "f.name as raw_file_name", "f.sha256 as raw_file_sha256", "f.size as raw_file_size", "u.display_name as created_by_name");
+  return r && { ...r, metadata: readJson(jsonObject, r.metadata, `metadata of run ${r.id}`), warnings: readJson(runWarnings, r.warnings, `warnings of run ${r.id}`) };
 }
 
-export type SeriesSummaryRow = Omit<DbSeriesRow, "t_f64" | "y_f64">;
+/** A series without its points, its skipped lines and processing notes parsed and checked. */
+export type SeriesSummaryRow = Omit<DbSeriesRow, "t_f64" | "y_f64" | "skipped_lines" | "processing"> & { skipped_lines: number[]; processing: Record<string, unknown> };
 
 export async function listSeriesOfRun(db: Db, labId: number, runId: number): Promise<SeriesSummaryRow[]> {
-  return db("series")
+  const rows: Array<Omit<DbSeriesRow, "t_f64" | "y_f64">> = await db("series")
     .where({ lab_id: labId, run_id: runId })
     .orderBy("position")
     .select("id", "run_id", "lab_id", "position", "name", "source_column", "quantity", "unit", "point_count", "skipped_lines", "processing", "t_min", "t_max");
+  return rows.map((s) => ({ ...s, skipped_lines: readJson(lineNumbers, s.skipped_lines, `skipped lines of series ${s.id}`), processing: readJson(jsonObject, s.processing, `processing notes of series ${s.id}`) }));
 }
 
 export async function getSeriesWithPoints(db: Db, labId: number, runId: number, seriesId: number): Promise<DbSeriesRow | undefined> {

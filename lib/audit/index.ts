@@ -146,8 +146,8 @@ export async function listAuditTrail(
     objectType: r.object_type,
     objectId: r.object_id,
     objectVersion: r.object_version,
-    oldValues: r.old_values ? JSON.parse(r.old_values) : null,
-    newValues: r.new_values ? JSON.parse(r.new_values) : null,
+    oldValues: r.old_values,
+    newValues: r.new_values,
     reason: r.reason,
     hash: r.hash,
   }));

@@ -21,7 +21,11 @@ export interface SignedInUser {
   sessionVersion?: number;
 }
 
-export const WRONG_CREDENTIALS = "The e-mail or password is not right. Check both and try again.";
+/**
+ * Every refused sign-in gets these words, whether the e-mail has an account, is disabled, has a wrong password or is
+ * locked: the answer never tells an outsider which e-mails exist. The lockout is said in general terms.
+ */
+export const WRONG_CREDENTIALS = `The e-mail or password is not right, or sign-in is paused after ${MAX_FAILED_SIGN_INS} failed attempts in a row (for ${LOCKOUT_MINUTES} minutes). Check both and try again, or ask a lab administrator.`;
 
 function hhmm(iso: string): string {
   return iso.slice(11, 16) + " UTC";
@@ -48,7 +52,13 @@ export async function signInWithPassword(
   const memberships = await listMembershipsOfUser(db, user.id);
   const home = memberships[0];
   const labId = home?.lab_id ?? null;
-  await checkAccountPassword(db, { id: user.id, password_hash: user.password_hash, labId }, password, "sign-in", now);
+  try {
+    await checkAccountPassword(db, { id: user.id, password_hash: user.password_hash, labId }, password, "sign-in", now);
+  } catch (e) {
+    // Wrong, locked or locked now: one answer (the audit trail keeps which).
+    if (e instanceof AppError && (e.code === "unauthorized" || e.code === "locked")) throw new AppError({ code: "unauthorized", message: WRONG_CREDENTIALS });
+    throw e;
+  }
 
   if (!home) {
     throw new AppError({ code: "forbidden", message: "This account belongs to no lab yet. Ask a lab administrator to add you." });
@@ -83,7 +93,9 @@ export async function checkAccountPassword(
   const lockedMessage = (until: string) =>
     `This account is locked after ${MAX_FAILED_SIGN_INS} failed ${context === "sign-in" ? "sign-ins" : "password entries"} in a row. Try again after ${hhmm(until)}, or ask a lab administrator.`;
   if (lockedUntil || count > MAX_FAILED_SIGN_INS) {
-    // Locked, or past the limit by parallel attempts: refused without comparing the password.
+    // Locked, or past the limit by parallel attempts: refused without comparing the password (at sign-in a dummy hash
+    // is compared instead, so a locked account answers as slowly as any other).
+    if (context === "sign-in") await verifyPassword(password, DUMMY_HASH);
     const until = lockedUntil ?? new Date(now.getTime() + LOCKOUT_MINUTES * 60_000).toISOString();
     if (!lockedUntil && (await lockAccount(db, user.id, until)))
       await recordAudit(db, { labId: user.labId, actorUserId: user.id, action: "auth.account_locked", newValues: { locked_until: until }, reason: `${count} password attempts in a row without success` }, now);

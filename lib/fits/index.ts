@@ -137,7 +137,7 @@ export async function saveFit(db: Knex, user: SignedInUser, input: SaveFitInput,
       objectType: "fit",
       objectId: recordId,
       objectVersion: version,
-      oldValues: previous ? { version: previous.version, content_hash: previous.content_hash, options: JSON.parse(previous.options) } : undefined,
+      oldValues: previous ? { version: previous.version, content_hash: previous.content_hash, options: previous.options } : undefined,
       newValues: {
         version,
         content_hash: contentHash,
@@ -162,8 +162,8 @@ function view(row: NonNullable<Awaited<ReturnType<typeof getFit>>>) {
     run: { id: row.run_id, name: row.run_name },
     series: { id: row.series_id, name: row.series_name },
     primary: { model: row.primary_model, k: row.k_value, k_se: row.k_se },
-    options: JSON.parse(row.options) as FitOptions,
-    results: JSON.parse(row.results) as StoredResults,
+    options: row.options,
+    results: row.results,
     engine_version: row.engine_version,
     data_sha256: row.data_sha256,
     content_hash: row.content_hash,
@@ -190,7 +190,7 @@ export async function fitVersions(db: Knex, labId: number, id: number) {
 /** Every version of a fit record, each with what changed from the one before (for callers that hold the record). */
 export async function versionsOfRecord(db: Knex, labId: number, recordId: number) {
   const versions = await listVersions(db, labId, recordId);
-  const options = versions.map((v) => JSON.parse(v.options) as FitOptions);
+  const options = versions.map((v) => v.options);
   return versions.map((v, i) => ({
     id: v.id,
     version: v.version,
@@ -206,8 +206,8 @@ export async function versionsOfRecord(db: Knex, labId: number, recordId: number
   }));
 }
 
-function parseResultsQuantity(results: string): "absorbance" | "concentration" {
-  return (JSON.parse(results) as { quantity?: string }).quantity === "concentration" ? "concentration" : "absorbance";
+function parseResultsQuantity(results: StoredResults): "absorbance" | "concentration" {
+  return results.quantity === "concentration" ? "concentration" : "absorbance";
 }
 
 /** What changed between two versions' options, in plain words. */

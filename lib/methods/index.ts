@@ -131,9 +131,9 @@ export async function getCalibration(db: Knex, labId: number, id: number) {
     analyte: row.analyte,
     concentration_unit: row.concentration_unit,
     wavelength_nm: row.wavelength_nm,
-    standards: JSON.parse(row.standards) as CreateCalibration["standards"],
-    options: JSON.parse(row.options) as Pick<CreateCalibration, "through_origin" | "weighting" | "sigma" | "blank_sd">,
-    results: JSON.parse(row.results) as CalibrationResults,
+    standards: row.standards,
+    options: row.options,
+    results: row.results,
     engine_version: row.engine_version,
     content_hash: row.content_hash,
     author: row.author_name,
@@ -146,7 +146,7 @@ export async function listCalibrations(db: Knex, labId: number, q: ListQueryInpu
   const { rows, total } = await listCalibrationRows(db, labId, q);
   return {
     rows: rows.map((r) => {
-      const res = JSON.parse(r.results) as CalibrationResults;
+      const res = r.results;
       return { id: r.id, name: r.name, analyte: r.analyte, unit: r.concentration_unit, wavelength_nm: r.wavelength_nm, slope: r.slope, r2: res.r2, n: res.n, lod: r.lod, loq: r.loq, linear: res.linearity.linear, author: r.author_name, created_at: r.created_at };
     }),
     total,
@@ -190,10 +190,10 @@ async function checkDefinition(db: Knex, labId: number, d: MethodDefinition) {
   }
 }
 
-async function storeMethodVersion(db: Knex, user: SignedInUser, d: MethodDefinition, previous: { id: number; record_id: number; version: number; definition: string } | null, reason: string | null) {
+async function storeMethodVersion(db: Knex, user: SignedInUser, d: MethodDefinition, previous: { id: number; record_id: number; version: number; definition: MethodDefinition } | null, reason: string | null) {
   await checkDefinition(db, user.labId, d);
   const definition = canonicalJson(d);
-  if (previous && previous.definition === definition) throw new AppError({ code: "conflict", message: "Nothing changed: the newest version already holds this definition." });
+  if (previous && canonicalJson(previous.definition) === definition) throw new AppError({ code: "conflict", message: "Nothing changed: the newest version already holds this definition." });
   const contentHash = sha(definition);
   return writeVersion(db, async (trx) => {
     const version = await claimNextVersion(trx, "methods", user.labId, previous);
@@ -219,7 +219,7 @@ async function storeMethodVersion(db: Knex, user: SignedInUser, d: MethodDefinit
       objectType: "method",
       objectId: recordId,
       objectVersion: version,
-      oldValues: previous ? JSON.parse(previous.definition) : null,
+      oldValues: previous ? previous.definition : null,
       newValues: { ...d, content_hash: contentHash },
       reason,
     });
@@ -253,14 +253,14 @@ export interface MethodVersionView {
   created_at: string;
 }
 
-async function viewOf(db: Knex, labId: number, row: { id: number; record_id: number | null; version: number; name: string; analyte: string; definition: string; calibration_id: number | null; content_hash: string; reason: string | null; created_at: string }, author: string | null): Promise<MethodVersionView> {
+async function viewOf(db: Knex, labId: number, row: { id: number; record_id: number | null; version: number; name: string; analyte: string; definition: MethodDefinition; calibration_id: number | null; content_hash: string; reason: string | null; created_at: string }, author: string | null): Promise<MethodVersionView> {
   return {
     id: row.id,
     record_id: row.record_id!,
     version: row.version,
     name: row.name,
     analyte: row.analyte,
-    definition: JSON.parse(row.definition) as MethodDefinition,
+    definition: row.definition,
     calibration: row.calibration_id ? await getCalibration(db, labId, row.calibration_id) : null,
     content_hash: row.content_hash,
     reason: row.reason,
@@ -288,7 +288,7 @@ export async function listMethods(db: Knex, labId: number, q: ListQueryInput) {
   const { rows, total } = await listLatestMethodRows(db, labId, q);
   return {
     rows: rows.map((r) => {
-      const d = JSON.parse(r.definition) as MethodDefinition;
+      const d = r.definition;
       return { id: r.id, record_id: r.record_id!, version: r.version, name: r.name, analyte: r.analyte, wavelength_nm: d.wavelength_nm, models: d.models, criteria: d.criteria.length, concentration: d.concentration.kind, author: r.author_name, created_at: r.created_at };
     }),
     total,

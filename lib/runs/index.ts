@@ -59,8 +59,8 @@ export async function getRunDetail(db: Knex, labId: number, runId: number): Prom
   const series = await listSeriesOfRun(db, labId, runId);
   return {
     ...summary(r, series.length, r.raw_file_size),
-    metadata: JSON.parse(r.metadata) as Record<string, unknown>,
-    warnings: JSON.parse(r.warnings) as string[],
+    metadata: r.metadata,
+    warnings: r.warnings,
     series: series.map(
       (s): SeriesSummary => ({
         id: s.id,
@@ -69,8 +69,8 @@ export async function getRunDetail(db: Knex, labId: number, runId: number): Prom
         quantity: s.quantity,
         unit: s.unit,
         points: s.point_count,
-        skipped_lines: JSON.parse(s.skipped_lines) as number[],
-        processing: JSON.parse(s.processing) as Record<string, unknown>,
+        skipped_lines: s.skipped_lines,
+        processing: s.processing,
         t_range: s.t_min === null || s.t_max === null ? null : [s.t_min, s.t_max],
       }),
     ),

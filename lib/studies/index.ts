@@ -176,12 +176,12 @@ export async function changeStudy(db: Knex, user: SignedInUser, id: number, chan
   if (versions.at(-1)!.id !== cur.id) throw new AppError({ code: "conflict", message: `Version ${cur.version} is not the newest; open version ${versions.at(-1)!.version}.` });
   const members =
     change.members ??
-    (JSON.parse(cur.members) as ResolvedMember[]).map(({ fitId, temperature_c, temperature_reason, excess_mol_l }) => ({ fitId, temperature_c, temperature_reason, excess_mol_l }));
+    cur.members.map(({ fitId, temperature_c, temperature_reason, excess_mol_l }) => ({ fitId, temperature_c, temperature_reason, excess_mol_l }));
   return storeVersion(db, user, {
     name: change.name ?? cur.name,
     kind: cur.kind as "temperature" | "excess",
     members,
-    options: change.options ?? JSON.parse(cur.options),
+    options: change.options ?? cur.options,
     previous: { id: cur.id, record_id: cur.record_id!, version: cur.version },
     reason: change.reason,
   });
@@ -199,9 +199,9 @@ export async function getStudyRecord(db: Knex, labId: number, id: number) {
     version: s.version,
     name: s.name,
     kind: s.kind as "temperature" | "excess",
-    members: JSON.parse(s.members) as ResolvedMember[],
-    options: JSON.parse(s.options) as { weighted: boolean; target_c?: number | null },
-    results: JSON.parse(s.results) as StudyResults,
+    members: s.members,
+    options: s.options,
+    results: s.results,
     engine_version: s.engine_version,
     content_hash: s.content_hash,
     reason: s.reason,
@@ -215,8 +215,8 @@ export type StudyRecord = Awaited<ReturnType<typeof getStudyRecord>>;
 
 export async function listStudies(db: Knex, labId: number) {
   return (await listLatestStudies(db, labId)).map((s) => {
-    const r = JSON.parse(s.results) as { ea?: { value: number; se: number | null }; k2?: { value: number; se: number } };
-    return { id: s.id, record_id: s.record_id, version: s.version, name: s.name, kind: s.kind, members: (JSON.parse(s.members) as unknown[]).length, ea: r.ea ?? null, k2: r.k2 ?? null, created_at: s.created_at, author: s.author_name };
+    const r = s.results;
+    return { id: s.id, record_id: s.record_id, version: s.version, name: s.name, kind: s.kind, members: s.members, ea: "ea" in r ? r.ea : null, k2: "k2" in r ? r.k2 : null, created_at: s.created_at, author: s.author_name };
   });
 }
 

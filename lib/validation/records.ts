@@ -26,11 +26,11 @@ export async function getValidationRecord(db: Knex, labId: number, id: number) {
   const signatures = await signaturesOf(db, labId, "validation", id);
   return {
     id: row.id,
-    run_by: row.run_by_name as string,
+    run_by: row.run_by_name,
     run_by_id: row.run_by,
     run_at: row.run_at,
     content_hash: row.content_hash,
-    report: JSON.parse(row.report) as ValidationReport,
+    report: row.report,
     signatures: signatures.map((s) => ({ printed_name: s.printed_name, meaning: s.meaning, signed_at: s.signed_at, content_hash: s.content_hash, void: s.content_hash !== row.content_hash })),
   };
 }

@@ -9,7 +9,7 @@ import { findLabBySlug } from "@/db/queries/labs";
 import { insertMembership, insertUser } from "@/db/queries/users";
 import { DEMO_LAB, DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { hashPassword } from "@/lib/auth/password";
-import { MAX_FAILED_SIGN_INS, signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
+import { MAX_FAILED_SIGN_INS, signInWithPassword, WRONG_CREDENTIALS, type SignedInUser } from "@/lib/auth/sign-in";
 import { saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { freshDb } from "../helpers/db";
@@ -114,7 +114,7 @@ describe("the lockout cannot be outrun", () => {
     // At most the limit's worth of passwords were compared: the rest were refused as locked without a comparison.
     const failed = await db("audit_events").where({ actor_user_id: row.id, action: "auth.sign_in_failed" });
     expect(failed.length).toBeLessThanOrEqual(MAX_FAILED_SIGN_INS);
-    await expect(signInWithPassword(db, u.email, u.password)).rejects.toThrow(/locked/);
+    await expect(signInWithPassword(db, u.email, u.password)).rejects.toThrow(WRONG_CREDENTIALS);
   });
 
   it("wrong signing passwords count toward the same lockout, and are audited", async () => {
@@ -126,6 +126,6 @@ describe("the lockout cannot be outrun", () => {
     expect(await db("audit_events").where({ actor_user_id: as.analyst!.userId, action: "signature.refused" })).toHaveLength(8);
     // Now even the right password neither signs nor signs in.
     expect((await call(as.analyst!, "fits/[id]/submit", { password: pw("analyst") }, { id: String(id) })).status).toBe(423);
-    await expect(signInWithPassword(db, as.analyst!.email, pw("analyst"))).rejects.toThrow(/locked/);
+    await expect(signInWithPassword(db, as.analyst!.email, pw("analyst"))).rejects.toThrow(WRONG_CREDENTIALS);
   });
 });
