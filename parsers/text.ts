@@ -1,5 +1,6 @@
 // Bytes to text for text-based exports: BOM-detected UTF-8 / UTF-16, UTF-8 without BOM, Windows-1252 as a fallback
 // (said in a warning), and binary files refused.
+import { PARSE_LIMITS } from "./limits";
 import { ParseError } from "./types";
 
 export interface DecodedText {
@@ -8,7 +9,14 @@ export interface DecodedText {
   warnings: string[];
 }
 
+/** Decodes an export and checks its shape (line length, line count) before anything splits it. */
 export function decodeText(bytes: Uint8Array): DecodedText {
+  const decoded = decodeOnly(bytes);
+  checkTextShape(decoded.text);
+  return decoded;
+}
+
+function decodeOnly(bytes: Uint8Array): DecodedText {
   if (bytes.length === 0) throw new ParseError("The file is empty.");
   const warnings: string[] = [];
   if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) return { text: strict("utf-8", bytes.subarray(3)), encoding: "utf-8", warnings };
@@ -34,6 +42,28 @@ export function decodeText(bytes: Uint8Array): DecodedText {
   } catch {
     warnings.push("The file is not valid UTF-8; it was read as Windows-1252 (Western European). Check degree signs and µ.");
     return { text: new TextDecoder("windows-1252").decode(bytes), encoding: "windows-1252", warnings };
+  }
+}
+
+/**
+ * One pass over the text before it is split: refuses, at the first line that passes it, a line longer than any export
+ * writes (a million columns on one line) or more lines than an export may hold (a file of newlines), so neither is
+ * split into millions of strings first.
+ */
+export function checkTextShape(text: string, limits: { maxLineChars: number; maxLines: number } = PARSE_LIMITS): void {
+  let line = 1;
+  let start = 0;
+  const n = text.length;
+  for (let i = 0; i <= n; i++) {
+    const c = i < n ? text.charCodeAt(i) : 10;
+    if (c !== 10 && c !== 13) continue;
+    if (i - start > limits.maxLineChars)
+      throw new ParseError(`the line is ${(i - start).toLocaleString("en")} characters long; a line may hold at most ${limits.maxLineChars.toLocaleString("en")} (is the table written across instead of down?)`, line);
+    if (i === n) break;
+    if (c === 13 && text.charCodeAt(i + 1) === 10) i++;
+    line++;
+    start = i + 1;
+    if (line > limits.maxLines && start < n) throw new ParseError(`the file has more than ${limits.maxLines.toLocaleString("en")} lines, the most an export may hold`, line);
   }
 }
 

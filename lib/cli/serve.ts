@@ -3,6 +3,9 @@
 // admin's Demo inbox page) and may generate its keys; outside the demo a missing secret or mail server stops the start.
 import { spawn } from "node:child_process";
 import path from "node:path";
+import { DEFAULT_DATABASE_FILE } from "@/db/config";
+import { openDb } from "@/db";
+import { checkWritable } from "@/db/writable";
 import { startMailSink } from "../mail/sink";
 
 async function main() {
@@ -17,6 +20,14 @@ async function main() {
       !env.SMTP_URL && env.MAIL_TRANSPORT !== "log" && "SMTP_URL (the mail server for review requests and invitations; or MAIL_TRANSPORT=log to write mail to the log on purpose)",
     ].filter(Boolean);
     if (missing.length) throw new Error(`Halflight will not start without:\n  - ${missing.join("\n  - ")}\nSet them in the environment (README: "Run it for a real lab"), or run the demo with npm run demo.`);
+  }
+  // The database must take a write before the server says it is ready.
+  const file = env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE;
+  const db = openDb(file);
+  try {
+    await checkWritable(db, path.resolve(file));
+  } finally {
+    await db.destroy();
   }
   if (demo && !env.SMTP_URL) {
     const dir = path.resolve(process.env.MAIL_SINK_DIR ?? "data/mail");

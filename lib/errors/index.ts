@@ -11,6 +11,8 @@ export const ERROR_CODES = {
   locked: 423,
   too_many_requests: 429,
   internal: 500,
+  unavailable: 503,
+  insufficient_storage: 507,
 } as const;
 
 export type ErrorCode = keyof typeof ERROR_CODES;

@@ -8,10 +8,11 @@ import { newestMethodVersion } from "@/db/queries/methods";
 import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
+import { PARSE_LIMITS } from "@/parsers/limits";
 import { parseExport, ParseError, rankParsers, type ParsedExport, type ParsedSeries } from "@/parsers";
 
-/** Limits stated on the upload page and enforced here. */
-export const INGEST_LIMITS = { maxBytes: 50 * 1024 * 1024, maxPoints: 5_000_000, maxChannels: 96 } as const;
+/** Limits stated on the upload page: the size here, the rest while the parsers read (parsers/limits.ts), again after. */
+export const INGEST_LIMITS = { maxBytes: 50 * 1024 * 1024, maxPoints: PARSE_LIMITS.maxPoints, maxChannels: PARSE_LIMITS.maxChannels } as const;
 
 export function sha256Hex(bytes: Uint8Array): string {
   return createHash("sha256").update(bytes).digest("hex");

@@ -3,6 +3,7 @@
 import Papa from "papaparse";
 import { percentTToAbsorbance, timeUnitFactor, type Quantity } from "@/lib/units";
 import { readMetadata } from "../metadata";
+import { PARSE_LIMITS } from "../limits";
 import { decodeText, readNumber, splitLines } from "../text";
 import { ParseError, type ParsedExport, type ParsedSeries, type ParseOptions } from "../types";
 import { classifyTime, timeReader } from "./time";
@@ -163,6 +164,8 @@ export function locateTable(bytes: Uint8Array): LocatedTable {
     throw new ParseError("a header row but no data rows below it", hdr + 1);
   }
   const dataWidth = cellsOf(first).length;
+  if (dataWidth - 1 > PARSE_LIMITS.maxChannels)
+    throw new ParseError(`the table has ${(dataWidth - 1).toLocaleString("en")} channels; an export may hold at most ${PARSE_LIMITS.maxChannels}`, first + 1);
   let headerCells: string[] | null = null;
   if (headerIdx >= 0) {
     const hc = parseRow(lines[headerIdx]!, delimiter).map(unquote);
@@ -234,6 +237,7 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
   const skipped = channels.map(() => [] as number[]);
   let prevT = -Infinity;
   let prevLine = 0;
+  const maxRows = Math.floor(PARSE_LIMITS.maxPoints / channels.length);
   for (let r = 0; r < rowCount; r++) {
     const line = first + 1 + r;
     const cells = row(r);
@@ -245,6 +249,8 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
     if (tv < prevT) throw new ParseError(`the time goes backwards (${unquote(cellsT[timeCol]!)} is earlier than the reading on line ${prevLine})`, line);
     prevT = tv;
     prevLine = line;
+    if (t.length >= maxRows)
+      throw new ParseError(`more than ${PARSE_LIMITS.maxPoints.toLocaleString("en")} readings (${channels.length} channel${channels.length === 1 ? "" : "s"} × ${maxRows.toLocaleString("en")} rows), the most an export may hold`, line);
     t.push(tv);
     channels.forEach(({ h, i }, q) => {
       const raw = unquote(cellsT[i]!);

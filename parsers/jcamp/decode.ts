@@ -1,6 +1,7 @@
 // JCAMP-DX (IUPAC) labelled data records and the (X++(Y..Y)) / (XY..XY) data tables, in AFFN and the ASDF forms:
 // PAC, SQZ, DIF (with the Y-check that opens the next line) and DUP.
 import { ParseError } from "../types";
+import { PARSE_LIMITS } from "../limits";
 
 export interface JcampDecoded {
   /** Labels as written (upper-cased, spaces and dashes removed, as the standard compares them), with their text. */
@@ -143,6 +144,7 @@ export function decodeJcamp(text: string): JcampDecoded {
     for (const d of dataLines) {
       const tok = tokenizeLine(d.text, d.line, asdf);
       if (tok.length % 2 !== 0) throw new ParseError("an (XY..XY) line holds an odd number of values", d.line);
+      if (rawY.length + tok.length / 2 > PARSE_LIMITS.maxPoints) throw tooMany(d.line);
       for (let k = 0; k < tok.length; k += 2) {
         xs.push(tok[k]!.value * xFactor);
         rawY.push(tok[k + 1]!.value);
@@ -158,6 +160,7 @@ export function decodeJcamp(text: string): JcampDecoded {
       const tok = tokenizeLine(d.text, d.line, asdf);
       if (tok.length === 0) continue;
       if (tok[0]!.kind !== "abs") throw new ParseError("a data line must start with an X value", d.line);
+      if (rawY.length + tok.length > PARSE_LIMITS.maxPoints) throw tooMany(d.line);
       let checkThisLine = pendingCheck;
       let endedInDif = false;
       for (let k = 1; k < tok.length; k++) {
@@ -186,6 +189,7 @@ export function decodeJcamp(text: string): JcampDecoded {
         } else {
           const repeats = t.value - 1;
           if (repeats < 0 || !Number.isInteger(t.value)) throw new ParseError(`a DUP count of ${t.value} is not valid`, d.line);
+          if (rawY.length + repeats > PARSE_LIMITS.maxPoints) throw tooMany(d.line);
           for (let r = 0; r < repeats; r++) {
             if (lastWasDif) lastY += lastDif;
             rawY.push(lastY);
@@ -214,4 +218,8 @@ export function decodeJcamp(text: string): JcampDecoded {
     yChecks,
     warnings,
   };
+}
+
+function tooMany(line: number): ParseError {
+  return new ParseError(`more than ${PARSE_LIMITS.maxPoints.toLocaleString("en")} readings, the most an export may hold`, line);
 }

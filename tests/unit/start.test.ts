@@ -25,3 +25,33 @@ describe("npm start outside the demo", () => {
     expect(r.stdout).not.toMatch(/generated/);
   });
 });
+
+describe("npm start with a database it cannot write", () => {
+  it("stops at start with a message saying so, instead of a server that fails every request", async () => {
+    const fs = await import("node:fs");
+    const os = await import("node:os");
+    const { openDb } = await import("@/db");
+    const { migrateToLatest } = await import("@/db/migrate");
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-ro-"));
+    const file = path.join(dir, "lab.sqlite");
+    const db = openDb(file);
+    await migrateToLatest(db);
+    await db.destroy();
+    fs.chmodSync(file, 0o444);
+    fs.chmodSync(dir, 0o555);
+    // Root writes through file modes, so as root the server is started as the unprivileged "nobody" user.
+    const asRoot = process.getuid?.() === 0;
+    if (asRoot) fs.chmodSync(path.dirname(dir), fs.statSync(path.dirname(dir)).mode | 0o001);
+    const r = spawnSync(process.execPath, [TSX, "lib/cli/serve.ts"], {
+      encoding: "utf8",
+      timeout: 60_000,
+      ...(asRoot ? { uid: 65534, gid: 65534 } : {}),
+      env: { PATH: process.env.PATH!, HOME: dir, NEXTAUTH_SECRET: "s".repeat(32), AUDIT_KEY: "k".repeat(32), MAIL_TRANSPORT: "log", DATABASE_FILE: file, PORT: "3999" } as unknown as NodeJS.ProcessEnv,
+    });
+    fs.chmodSync(dir, 0o755);
+    fs.rmSync(dir, { recursive: true, force: true });
+    expect(r.status).toBe(1);
+    expect(r.stderr).toMatch(/Halflight will not start: the database .*lab\.sqlite cannot be written, because it is read-only/);
+    expect(r.stdout).not.toMatch(/Halflight on http/);
+  });
+});

@@ -3,7 +3,7 @@ import { authenticateApiKey } from "@/lib/admin/api-keys";
 import { AppError } from "@/lib/errors";
 import { toErrorResponse } from "@/lib/http/errors";
 import { formOf, uploadedFile } from "@/lib/http/multipart";
-import { ingestExport } from "@/lib/ingest";
+import { ingestExport, uploadLimitBytes } from "@/lib/ingest";
 import { runMappingSchema } from "@/lib/schemas/runs";
 
 // Instrument upload: `Authorization: Bearer <key>`, multipart with `file` and optional `mapping` (JSON, as on the
@@ -13,7 +13,7 @@ export async function POST(req: Request): Promise<Response> {
   try {
     const db = await getDb();
     const key = await authenticateApiKey(db, req.headers.get("authorization"));
-    const form = await formOf(req);
+    const form = await formOf(req, await uploadLimitBytes(db, key.labId));
     const { name, bytes } = await uploadedFile(form);
     const mapping = runMappingSchema.parse({ ...jsonField(form, "mapping"), run: { ...(jsonField(form, "mapping").run as object | undefined), ...jsonField(form, "metadata") } });
     const result = await ingestExport(db, { labId: key.labId, userId: null, actorLabel: `API key ${key.prefix}… (${key.name})`, bytes, fileName: name, mapping });

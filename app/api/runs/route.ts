@@ -1,7 +1,7 @@
 import { AppError } from "@/lib/errors";
 import { withUser } from "@/lib/http/with-user";
 import { formOf, uploadedFile } from "@/lib/http/multipart";
-import { ingestExport, sha256Hex } from "@/lib/ingest";
+import { ingestExport, sha256Hex, uploadLimitBytes } from "@/lib/ingest";
 import { listLabRuns } from "@/lib/runs";
 import { runListQuerySchema, runMappingSchema } from "@/lib/schemas/runs";
 
@@ -12,7 +12,7 @@ export const GET = withUser({ permission: "run:read" }, async ({ req, db, user }
 
 // Stores a previewed export with its mapping: the same bytes again (checked against the previewed SHA-256).
 export const POST = withUser({ permission: "run:upload" }, async ({ req, db, user }) => {
-  const form = await formOf(req);
+  const form = await formOf(req, await uploadLimitBytes(db, user.labId));
   const { name, bytes } = await uploadedFile(form);
   const expected = form.get("sha256");
   if (typeof expected === "string" && expected && expected !== sha256Hex(bytes))
