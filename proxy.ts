@@ -1,10 +1,18 @@
-// Redirects signed-out page requests to sign-in. Nothing more: every page, route handler and action checks
-// the session and the permission itself.
+// Redirects signed-out page requests to sign-in, and gives share pages their status code (410 for a link that is
+// over, 404 for one that does not exist) before the page renders its message. Nothing more: every page, route
+// handler and action checks the session and the permission itself.
 import { NextResponse, type NextRequest } from "next/server";
+import { getDb } from "@/db";
+import { shareLinkState } from "@/lib/sharing/state";
 
 const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-token"];
 
-export function proxy(req: NextRequest) {
+export async function proxy(req: NextRequest) {
+  const share = req.nextUrl.pathname.match(/^\/share\/([^/]+)\/?$/);
+  if (share) {
+    const state = await shareLinkState(await getDb(), decodeURIComponent(share[1]!)).catch(() => "open" as const);
+    return state === "open" ? NextResponse.next() : NextResponse.next({ status: state === "gone" ? 410 : 404 });
+  }
   const hasSession = SESSION_COOKIES.some((c) => req.cookies.has(c));
   if (hasSession) return NextResponse.next();
   const url = req.nextUrl.clone();
@@ -15,6 +23,6 @@ export function proxy(req: NextRequest) {
 
 export const config = {
   // Pages only: the API answers 401 itself; sign-in, invitation and share links (which check for themselves), assets
-  // and fonts stay open.
-  matcher: ["/((?!api|sign-in|invite|share|_next|favicon.ico|fonts).*)"],
+  // and fonts stay open to signed-out visitors. Share pages pass through for their status code.
+  matcher: ["/((?!api|sign-in|invite|share|_next|favicon.ico|fonts).*)", "/share/:token"],
 };

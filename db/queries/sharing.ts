@@ -16,8 +16,9 @@ export async function findShareLink(db: Db, labId: number, id: number): Promise<
   return db("share_links").where({ lab_id: labId, id }).first();
 }
 
-export async function revokeShareLink(db: Db, id: number, userId: number, at: string): Promise<void> {
-  await db("share_links").where({ id }).update({ revoked_at: at, revoked_by: userId });
+/** Revokes a link that is still open, as one conditional statement: true when this call revoked it. */
+export async function revokeShareLink(db: Db, id: number, userId: number, at: string): Promise<boolean> {
+  return (await db("share_links").where({ id }).whereNull("revoked_at").update({ revoked_at: at, revoked_by: userId })) === 1;
 }
 
 export async function insertShareView(db: Db, shareLinkId: number, viewerId: number, at: string): Promise<void> {

@@ -56,10 +56,13 @@ export async function revokeLink(db: Knex, user: SignedInUser, linkId: number) {
   if (!l) throw new AppError({ code: "not_found", message: `There is no share link ${linkId} in this lab.` });
   if (l.revoked_at) return { revoked_at: l.revoked_at };
   const at = new Date().toISOString();
-  await db.transaction(async (trx) => {
-    await revokeShareLink(trx, linkId, user.userId, at);
+  // The open-link check is the UPDATE's own condition: of two revocations at once, one writes and audits.
+  const revoked = await db.transaction(async (trx) => {
+    if (!(await revokeShareLink(trx, linkId, user.userId, at))) return false;
     await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.revoked", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: linkId } });
+    return true;
   });
+  if (!revoked) return { revoked_at: (await findShareLink(db, user.labId, linkId))!.revoked_at! };
   return { revoked_at: at };
 }
 

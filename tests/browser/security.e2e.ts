@@ -52,3 +52,20 @@ describe("security headers", () => {
     expect(violations).toEqual([]);
   });
 });
+
+describe("share pages answer with real status codes", () => {
+  it("a revoked link's page is 410 with its message, an unknown link's 404, an open one 200", async () => {
+    const fitId = Number((await (await page.request.get(`${baseURL}/api/fits?pageSize=1`)).json()).fits[0].id);
+    const headers = { origin: baseURL, "content-type": "application/json" };
+    const made = await (await page.request.post(`${baseURL}/api/fits/${fitId}/share`, { headers, data: {} })).json();
+    const open = await page.request.get(`${baseURL}${made.path}`);
+    expect(open.status()).toBe(200);
+    expect((await page.request.post(`${baseURL}/api/share-links/${made.id}/revoke`, { headers, data: {} })).status()).toBe(200);
+    const gone = await page.goto(`${baseURL}${made.path}`);
+    expect(gone!.status()).toBe(410);
+    await expect.poll(() => page.getByTestId("share-message").textContent()).toMatch(/revoked on .* UTC\. Ask the sender for a new one/);
+    await page.screenshot({ path: path.join(artifacts, "share-revoked-410.png") });
+    const unknown = await page.request.get(`${baseURL}/share/${"x".repeat(32)}`);
+    expect(unknown.status()).toBe(404);
+  });
+});
