@@ -3,6 +3,8 @@
 // handler and action checks the session and the permission itself.
 import { NextResponse, type NextRequest } from "next/server";
 import { getDb } from "@/db";
+import { AppError } from "@/lib/errors";
+import { clientAddress, takeOrRefuse } from "@/lib/http/rate-limit";
 import { shareLinkState } from "@/lib/sharing/state";
 
 const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-token"];
@@ -10,7 +12,15 @@ const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-
 export async function proxy(req: NextRequest) {
   const share = req.nextUrl.pathname.match(/^\/share\/([^/]+)\/?$/);
   if (share) {
-    const state = await shareLinkState(await getDb(), decodeURIComponent(share[1]!)).catch(() => "open" as const);
+    const db = await getDb();
+    try {
+      // Every open of a share page is a token guess when the token is wrong: counted per address.
+      await takeOrRefuse(db, "shareByAddress", `address ${clientAddress(req.headers)}`);
+    } catch (e) {
+      if (e instanceof AppError) return new NextResponse(e.message, { status: e.status, headers: { "content-type": "text/plain; charset=utf-8", "retry-after": String(e.retryAfter ?? 60) } });
+      throw e;
+    }
+    const state = await shareLinkState(db, decodeURIComponent(share[1]!)).catch(() => "open" as const);
     return state === "open" ? NextResponse.next() : NextResponse.next({ status: state === "gone" ? 410 : 404 });
   }
   const hasSession = SESSION_COOKIES.some((c) => req.cookies.has(c));

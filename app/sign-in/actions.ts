@@ -1,12 +1,14 @@
 "use server";
 // Password forms post here (never by GET, so a password never lands in an address, a history or a log) and work before
 // or without the page's scripts; scripts only keep the page in place while the answer comes.
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { getDb } from "@/db";
 import { acceptInvitation } from "@/lib/admin/invitations";
 import { safeNext, startSession } from "@/lib/auth/session-cookie";
 import { signInWithPassword, WRONG_CREDENTIALS } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
+import { clientAddress, takeOrRefuse } from "@/lib/http/rate-limit";
 
 export interface PasswordFormState {
   errors: string[];
@@ -28,7 +30,7 @@ export async function signInAction(_prev: PasswordFormState, form: FormData): Pr
   if (!email || !password) return { errors: ["Enter your e-mail and your password."], email };
   if (password.length > MAX_PASSWORD) return { errors: [WRONG_CREDENTIALS], email };
   try {
-    await startSession(await signInWithPassword(await getDb(), email, password));
+    await startSession(await signInWithPassword(await getDb(), email, password, new Date(), { address: clientAddress(await headers()) }));
   } catch (e) {
     if (e instanceof AppError) return { errors: [e.message], email };
     throw e;
@@ -44,6 +46,7 @@ export async function acceptInvitationAction(_prev: PasswordFormState, form: For
   if (password.length > MAX_PASSWORD) return { errors: [`A password may have at most ${MAX_PASSWORD} characters.`], email: "" };
   const db = await getDb();
   try {
+    await takeOrRefuse(db, "invitationByAddress", `address ${clientAddress(await headers())}`);
     const { email } = await acceptInvitation(db, token, password);
     await startSession(await signInWithPassword(db, email, password));
   } catch (e) {

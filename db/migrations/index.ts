@@ -11,6 +11,7 @@ import * as validation from "./20261202090000_validation";
 import * as methods from "./20261202100000_methods";
 import * as integrity from "./20261202110000_integrity";
 import * as fitsState from "./20261202120000_fits_state";
+import * as rateLimits from "./20261202130000_rate_limits";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
@@ -23,4 +24,5 @@ export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<
   { name: "20261202100000_methods", ...methods },
   { name: "20261202110000_integrity", ...integrity },
   { name: "20261202120000_fits_state", ...fitsState },
+  { name: "20261202130000_rate_limits", ...rateLimits },
 ];

@@ -6,6 +6,7 @@ import { findApiKey, findApiKeyByHash, insertApiKey, listApiKeyRows, revokeApiKe
 import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
+import { countFailure, refuseIfOver, takeOrRefuse } from "@/lib/http/rate-limit";
 
 const KEY_PREFIX = "hlk_";
 const hashKey = (k: string) => createHash("sha256").update(k).digest("hex");
@@ -39,38 +40,24 @@ export async function revokeApiKey(db: Knex, admin: SignedInUser, id: number) {
   return { revoked_at: at };
 }
 
-/** A fixed window per key: at most `limit` requests in `windowMs`. Kept in memory: one server process per lab install. */
-export class RateLimiter {
-  private hits = new Map<number, { start: number; count: number }>();
-  constructor(
-    private readonly limit: number,
-    private readonly windowMs: number,
-  ) {}
-  /** Seconds to wait, or 0 when the request may go ahead (and is counted). */
-  take(keyId: number, now = Date.now()): number {
-    const h = this.hits.get(keyId);
-    if (!h || now - h.start >= this.windowMs) {
-      this.hits.set(keyId, { start: now, count: 1 });
-      return 0;
-    }
-    if (h.count >= this.limit) return Math.ceil((h.start + this.windowMs - now) / 1000);
-    h.count++;
-    return 0;
-  }
-}
-
-export const INGEST_RATE = { limit: Number(process.env.API_KEY_RATE_LIMIT ?? 30), windowMs: 60_000 };
-const limiter = new RateLimiter(INGEST_RATE.limit, INGEST_RATE.windowMs);
-
-/** The lab and key behind an `Authorization: Bearer …` header; 401 for a missing, unknown or revoked key, 429 when over the rate. */
-export async function authenticateApiKey(db: Knex, authorization: string | null) {
+/**
+ * The lab and key behind an `Authorization: Bearer …` header; 401 for a missing, unknown or revoked key, 429 when
+ * over the key's rate or when the address has sent too many refused keys (both counted in the database, shared by
+ * every server process).
+ */
+export async function authenticateApiKey(db: Knex, authorization: string | null, address = "unknown") {
+  const who = `address ${address}`;
+  await refuseIfOver(db, "apiKeyFailuresByAddress", who);
+  const refuse = async (message: string) => {
+    await countFailure(db, "apiKeyFailuresByAddress", who);
+    return new AppError({ code: "unauthorized", message });
+  };
   const m = authorization?.match(/^Bearer\s+(\S+)\s*$/i);
-  if (!m) throw new AppError({ code: "unauthorized", message: "Send an instrument API key as `Authorization: Bearer <key>`." });
+  if (!m) throw await refuse("Send an instrument API key as `Authorization: Bearer <key>`.");
   const k = await findApiKeyByHash(db, hashKey(m[1]!));
-  if (!k) throw new AppError({ code: "unauthorized", message: "This API key is not known." });
-  if (k.revoked_at) throw new AppError({ code: "unauthorized", message: `This API key was revoked on ${k.revoked_at.slice(0, 16).replace("T", " ")} UTC.` });
-  const wait = limiter.take(k.id);
-  if (wait > 0) throw new AppError({ code: "too_many_requests", message: `Too many requests with this key: at most ${INGEST_RATE.limit} a minute. Try again in ${wait} s.`, retryAfter: wait });
+  if (!k) throw await refuse("This API key is not known.");
+  if (k.revoked_at) throw await refuse(`This API key was revoked on ${k.revoked_at.slice(0, 16).replace("T", " ")} UTC.`);
+  await takeOrRefuse(db, "apiKeyRequests", `API key ${k.prefix}`, k.lab_id);
   await touchApiKey(db, k.id, new Date().toISOString());
   return { keyId: k.id, labId: k.lab_id, name: k.name, prefix: k.prefix };
 }

@@ -6,6 +6,7 @@ import { endSessions } from "@/db/queries/users";
 import { AppError } from "@/lib/errors";
 import { isRole } from "@/lib/permissions/roles";
 import { authSecret } from "./secret";
+import { clientAddress } from "@/lib/http/rate-limit";
 import { signInWithPassword } from "./sign-in";
 
 export const SESSION_HOURS = 10;
@@ -18,12 +19,12 @@ export const authOptions: NextAuthOptions = {
     CredentialsProvider({
       name: "Halflight account",
       credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
-      async authorize(credentials) {
+      async authorize(credentials, req) {
         const email = credentials?.email?.trim() ?? "";
         const password = credentials?.password ?? "";
         if (!email || !password) throw new Error("Enter your e-mail and your password.");
         try {
-          const u = await signInWithPassword(await getDb(), email, password);
+          const u = await signInWithPassword(await getDb(), email, password, new Date(), { address: clientAddress(new Headers(req.headers as Record<string, string>)) });
           return { id: String(u.userId), email: u.email, name: u.name, labId: u.labId, role: u.role, sv: u.sessionVersion ?? 0 };
         } catch (e) {
           // next-auth passes the thrown message to the sign-in form.

@@ -1,8 +1,10 @@
 // Checks an e-mail and password, counting failures and locking the account after too many in a row (21 CFR 11.300).
+import type { Knex } from "knex";
 import type { Db } from "@/db";
 import { findUserByEmail, listMembershipsOfUser, lockAccount, reservePasswordAttempt, settlePasswordSuccess } from "@/db/queries/users";
 import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
+import { takeOrRefuse } from "@/lib/http/rate-limit";
 import type { Role } from "@/lib/permissions/roles";
 import { DUMMY_HASH, verifyPassword } from "./password";
 
@@ -31,12 +33,22 @@ function hhmm(iso: string): string {
   return iso.slice(11, 16) + " UTC";
 }
 
+/**
+ * Signs in with an e-mail and password. Given the client's address (every sign-in form and endpoint gives it), the
+ * attempt is first counted against the address's and the e-mail's rate limits (429 past either, shared by every
+ * server process through the database).
+ */
 export async function signInWithPassword(
-  db: Db,
+  db: Knex,
   email: string,
   password: string,
   now: Date = new Date(),
+  client?: { address: string },
 ): Promise<SignedInUser> {
+  if (client) {
+    await takeOrRefuse(db, "signInByAddress", `address ${client.address}`);
+    await takeOrRefuse(db, "signInByAccount", `e-mail ${email.trim().toLowerCase().slice(0, 254)}`);
+  }
   const user = await findUserByEmail(db, email);
   if (!user || user.disabled) {
     await verifyPassword(password, DUMMY_HASH);

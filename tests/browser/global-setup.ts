@@ -97,6 +97,9 @@ export async function setup(project: TestProject): Promise<void> {
       NEXT_TELEMETRY_DISABLED: "1",
       SMTP_URL: `smtp://127.0.0.1:${sink.port}`,
       MAIL_SINK_DIR: mailDir,
+      // Every browser test signs in from 127.0.0.1: the per-address sign-in count is raised as a NAT'ed lab would
+      // (the limits themselves are tested in tests/unit/rate-limit.test.ts).
+      RATE_LIMITS: "signInByAddress=1000,shareByAddress=1000",
     },
   });
   // The server's output goes to the console and to a file, so a test can read what the server logged.

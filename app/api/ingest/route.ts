@@ -3,6 +3,7 @@ import { authenticateApiKey } from "@/lib/admin/api-keys";
 import { AppError } from "@/lib/errors";
 import { toErrorResponse } from "@/lib/http/errors";
 import { formOf, uploadedFile } from "@/lib/http/multipart";
+import { clientAddress } from "@/lib/http/rate-limit";
 import { ingestExport, uploadLimitBytes } from "@/lib/ingest";
 import { runMappingSchema } from "@/lib/schemas/runs";
 
@@ -12,7 +13,7 @@ import { runMappingSchema } from "@/lib/schemas/runs";
 export async function POST(req: Request): Promise<Response> {
   try {
     const db = await getDb();
-    const key = await authenticateApiKey(db, req.headers.get("authorization"));
+    const key = await authenticateApiKey(db, req.headers.get("authorization"), clientAddress(req.headers));
     const form = await formOf(req, await uploadLimitBytes(db, key.labId));
     const { name, bytes } = await uploadedFile(form);
     const mapping = runMappingSchema.parse({ ...jsonField(form, "mapping"), run: { ...(jsonField(form, "mapping").run as object | undefined), ...jsonField(form, "metadata") } });

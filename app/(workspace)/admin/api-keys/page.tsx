@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import { ApiKeys } from "@/components/admin/api-keys";
 import { PageHeader } from "@/components/shell/page-header";
 import { getDb } from "@/db";
-import { INGEST_RATE, listApiKeys } from "@/lib/admin/api-keys";
+import { listApiKeys } from "@/lib/admin/api-keys";
+import { RATE_RULES } from "@/lib/http/rate-limit";
 import { requirePageUser } from "@/lib/auth/page";
 import { appUrl } from "@/lib/mail";
 
@@ -21,7 +22,7 @@ export default async function ApiKeysPage() {
   -F file=@run-0412.csv \\
   -F 'metadata={"temperature_c": 30, "operator": "bench 2"}' \\
   ${appUrl("/api/ingest")}`}</pre>
-        <p className="mt-2 text-ink-700">The answer is the run id (201), the existing run for a file sent before (200), or a message naming the line of a file that cannot be read (422, nothing stored). At most {INGEST_RATE.limit} requests a minute per key.</p>
+        <p className="mt-2 text-ink-700">The answer is the run id (201), the existing run for a file sent before (200), or a message naming the line of a file that cannot be read (422, nothing stored). At most {RATE_RULES.apiKeyRequests.points} requests a minute per key; an address that sends {RATE_RULES.apiKeyFailuresByAddress.points} refused keys in {RATE_RULES.apiKeyFailuresByAddress.duration / 60} minutes waits out the rest of that time.</p>
       </section>
     </>
   );
