@@ -4,8 +4,9 @@ import { MODEL_IDS } from "@/lib/kinetics/models";
 /** Every model of the engine's model table, own formula included. */
 export const FIT_MODELS = MODEL_IDS;
 
-/** Names and titles are printed in pages, CSV and PDF: control characters (NUL, escapes) are refused. */
-export const NO_CONTROL = /^[^\u0000-\u001f\u007f]*$/;
+import { NO_CONTROL } from "./common";
+
+export { NO_CONTROL };
 const PARAMETER_NAME = /^[A-Za-z][A-Za-z0-9_]{0,31}$/;
 const parameterValues = z
   .record(z.string().regex(PARAMETER_NAME, "A parameter name is a letter followed by letters, digits or _."), z.number().finite())

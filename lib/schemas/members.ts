@@ -14,9 +14,9 @@ export type Member = z.infer<typeof memberSchema>;
 
 const reason = z.string().trim().min(3, "Say why (at least 3 characters).").max(500);
 export const memberActionSchema = z.discriminatedUnion("action", [
-  z.object({ action: z.literal("unlock"), reason }),
-  z.object({ action: z.literal("deactivate"), reason }),
-  z.object({ action: z.literal("reactivate"), reason }),
-  z.object({ action: z.literal("role"), role: z.enum(ROLES), reason }),
+  z.strictObject({ action: z.literal("unlock"), reason }),
+  z.strictObject({ action: z.literal("deactivate"), reason }),
+  z.strictObject({ action: z.literal("reactivate"), reason }),
+  z.strictObject({ action: z.literal("role"), role: z.enum(ROLES), reason }),
 ]);
 export type MemberAction = z.infer<typeof memberActionSchema>;

@@ -3,50 +3,54 @@ import { z } from "zod";
 import type { Criterion } from "@/lib/kinetics/criteria";
 import type { Conversion } from "@/lib/kinetics/workspace";
 import { DEFAULT_METHOD_MODELS } from "@/lib/kinetics/models";
+import { lineText } from "./common";
 import { FIT_MODELS } from "./fits";
 
 const reason = z.string().trim().min(3, "Say why (at least 3 characters).").max(1000);
 const positive = z.number().finite().positive();
 
 export const criterionSchema = z.discriminatedUnion("kind", [
-  z.object({ kind: z.literal("r2_min"), value: z.number().finite().min(0).max(1) }),
-  z.object({ kind: z.literal("runs_z_max"), value: positive }),
-  z.object({ kind: z.literal("rel_se_k_max"), value: positive.max(10) }),
-  z.object({ kind: z.literal("min_points"), value: z.number().int().min(3).max(10_000_000) }),
-  z.object({ kind: z.literal("absorbance_window"), min: z.number().finite(), max: z.number().finite() }).refine((c) => c.max > c.min, "The window's upper limit must be above its lower limit."),
-  z.object({ kind: z.literal("converged") }),
+  z.strictObject({ kind: z.literal("r2_min"), value: z.number().finite().min(0).max(1) }),
+  z.strictObject({ kind: z.literal("runs_z_max"), value: positive }),
+  z.strictObject({ kind: z.literal("rel_se_k_max"), value: positive.max(10) }),
+  z.strictObject({ kind: z.literal("min_points"), value: z.number().int().min(3).max(10_000_000) }),
+  z.strictObject({ kind: z.literal("absorbance_window"), min: z.number().finite(), max: z.number().finite() }).refine((c) => c.max > c.min, "The window's upper limit must be above its lower limit."),
+  z.strictObject({ kind: z.literal("converged") }),
 ]) satisfies z.ZodType<Criterion>;
 
-export const customModelSchema = z.object({
-  name: z.string().trim().min(1).max(80),
+export const customModelSchema = z.strictObject({
+  name: lineText(80).pipe(z.string().min(1)),
   formula: z.string().trim().min(1).max(500),
-  starts: z.record(z.string(), z.number().finite()).default({}),
+  starts: z
+    .record(z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,31}$/, "A parameter name is a letter followed by letters, digits or _."), z.number().finite())
+    .refine((r) => Object.keys(r).length <= 12, "At most 12 start values.")
+    .default({}),
 });
 export type CustomModel = z.infer<typeof customModelSchema>;
 
 export const methodDefinitionSchema = z
-  .object({
-    name: z.string().trim().min(2).max(200),
-    analyte: z.string().trim().min(1).max(200),
+  .strictObject({
+    name: lineText(200).pipe(z.string().min(2)),
+    analyte: lineText(200).pipe(z.string().min(1)),
     wavelength_nm: z.number().finite().positive().max(2000).nullable().default(null),
     path_length_cm: positive.max(100).default(1),
     concentration: z
       .discriminatedUnion("kind", [
-        z.object({ kind: z.literal("none") }),
-        z.object({ kind: z.literal("beer-lambert"), epsilon: positive, epsilon_unit: z.literal("L mol⁻¹ cm⁻¹").default("L mol⁻¹ cm⁻¹") }),
-        z.object({ kind: z.literal("calibration"), calibration_id: z.number().int().positive() }),
+        z.strictObject({ kind: z.literal("none") }),
+        z.strictObject({ kind: z.literal("beer-lambert"), epsilon: positive, epsilon_unit: z.literal("L mol⁻¹ cm⁻¹").default("L mol⁻¹ cm⁻¹") }),
+        z.strictObject({ kind: z.literal("calibration"), calibration_id: z.number().int().positive() }),
       ])
       .default({ kind: "none" }),
     blank: z
       .discriminatedUnion("kind", [
-        z.object({ kind: z.literal("none") }),
-        z.object({ kind: z.literal("channel") }),
-        z.object({ kind: z.literal("value"), value: z.number().finite() }),
+        z.strictObject({ kind: z.literal("none") }),
+        z.strictObject({ kind: z.literal("channel") }),
+        z.strictObject({ kind: z.literal("value"), value: z.number().finite() }),
       ])
       .default({ kind: "none" }),
     models: z.array(z.enum(FIT_MODELS)).min(1).max(8).default(DEFAULT_METHOD_MODELS),
     weighting: z.enum(["none", "log"]).default("none"),
-    window: z.object({ from_s: z.number().finite().min(0).nullable().default(null), to_s: z.number().finite().positive().nullable().default(null) }).default({ from_s: null, to_s: null }),
+    window: z.strictObject({ from_s: z.number().finite().min(0).nullable().default(null), to_s: z.number().finite().positive().nullable().default(null) }).default({ from_s: null, to_s: null }),
     custom_models: z.array(customModelSchema).max(10).default([]),
     criteria: z.array(criterionSchema).max(20).default([]),
     notes: z.string().trim().max(4000).default(""),
@@ -56,10 +60,10 @@ export const methodDefinitionSchema = z
 export type MethodDefinition = z.infer<typeof methodDefinitionSchema>;
 export type MethodDefinitionInput = z.input<typeof methodDefinitionSchema>;
 
-export const createMethodSchema = z.object({ definition: methodDefinitionSchema });
-export const newMethodVersionSchema = z.object({ definition: methodDefinitionSchema, reason });
+export const createMethodSchema = z.strictObject({ definition: methodDefinitionSchema });
+export const newMethodVersionSchema = z.strictObject({ definition: methodDefinitionSchema, reason });
 
-export const standardSchema = z.object({
+export const standardSchema = z.strictObject({
   concentration: z.number().finite().min(0),
   absorbance: z.number().finite(),
   replicate: z.number().int().min(1).max(100).default(1),
@@ -67,9 +71,9 @@ export const standardSchema = z.object({
 export type Standard = z.infer<typeof standardSchema>;
 
 export const createCalibrationSchema = z
-  .object({
-    name: z.string().trim().min(2).max(200),
-    analyte: z.string().trim().min(1).max(200),
+  .strictObject({
+    name: lineText(200).pipe(z.string().min(2)),
+    analyte: lineText(200).pipe(z.string().min(1)),
     concentration_unit: z.string().trim().min(1).max(32).default("mol/L"),
     wavelength_nm: z.number().finite().positive().nullable().default(null),
     standards: z.array(standardSchema).min(3, "A calibration needs at least 3 standards.").max(500),
@@ -91,7 +95,7 @@ export const listQuerySchema = z.object({
 });
 export type ListQueryInput = z.infer<typeof listQuerySchema>;
 
-export const assignMethodSchema = z.object({ methodId: z.number().int().positive().nullable(), reason });
+export const assignMethodSchema = z.strictObject({ methodId: z.number().int().positive().nullable(), reason });
 
 /** What the fitting page needs of a run's method (its newest version). */
 export interface MethodForRun {

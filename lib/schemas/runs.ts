@@ -1,30 +1,31 @@
 // One schema per resource: runs, their mapping at upload, the list query.
 import { z } from "zod";
 import type { DbRunRow } from "@/db/tables";
+import { lineText } from "./common";
 
 const optionalNumber = z.number().finite().nullable().optional();
-const optionalText = z.string().trim().max(200).nullable().optional();
+const optionalText = lineText(200).nullable().optional();
 
-export const channelMappingSchema = z.object({
+export const channelMappingSchema = z.strictObject({
   /** The series name as the parser gave it (its column header). */
-  source: z.string(),
+  source: z.string().max(200),
   include: z.boolean().default(true),
-  name: z.string().trim().min(1).max(200).optional(),
+  name: lineText(200).pipe(z.string().min(1)).optional(),
   /** What the readings are, where the file did not say or said it wrongly (recorded with the series). */
   quantity: z.enum(["absorbance", "concentration", "signal"]).optional(),
   unit: z.string().trim().min(1).max(32).optional(),
 });
 
-export const runMappingSchema = z.object({
-  parser: z.string().optional(),
-  timeColumn: z.string().optional(),
-  channels: z.array(channelMappingSchema).optional(),
+export const runMappingSchema = z.strictObject({
+  parser: z.string().max(40).optional(),
+  timeColumn: z.string().max(200).optional(),
+  channels: z.array(channelMappingSchema).max(96).optional(),
   /** A channel holding the blank, subtracted from the others at the same times. */
-  blank: z.string().nullable().optional(),
+  blank: z.string().max(200).nullable().optional(),
   dilutionFactor: z.number().positive().finite().nullable().optional(),
   run: z
-    .object({
-      name: z.string().trim().min(1).max(255).optional(),
+    .strictObject({
+      name: lineText(255).pipe(z.string().min(1)).optional(),
       study: optionalText,
       wavelength_nm: optionalNumber,
       path_length_cm: z.number().positive().finite().nullable().optional(),
@@ -41,9 +42,9 @@ export const runMappingSchema = z.object({
 export type RunMapping = z.infer<typeof runMappingSchema>;
 
 export const runListQuerySchema = z.object({
-  study: z.string().optional(),
-  from: z.string().optional(),
-  to: z.string().optional(),
+  study: z.string().max(200).optional(),
+  from: z.string().max(40).optional(),
+  to: z.string().max(40).optional(),
   wavelengthMin: z.coerce.number().optional(),
   wavelengthMax: z.coerce.number().optional(),
   temperatureMin: z.coerce.number().optional(),

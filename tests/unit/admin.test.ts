@@ -163,7 +163,11 @@ describe("POST /api/ingest with instrument API keys", () => {
 
   it("a key of lab A cannot write into lab B: the run lands in the key's own lab whatever the request says", async () => {
     const other = await createApiKey(db, otherAdmin, "Fennwick bench");
-    const r = await post(other.key, file("parsers/delimited/fixtures/cv-tab-mmss.txt"), { metadata: JSON.stringify({ lab_id: admin.labId }) });
+    // A lab named in the request is an unknown field: refused (422), not silently ignored.
+    const named = await post(other.key, file("parsers/delimited/fixtures/cv-tab-mmss.txt"), { metadata: JSON.stringify({ lab_id: admin.labId }) });
+    expect(named.status).toBe(422);
+    expect(JSON.stringify(named.body.error.issues)).toMatch(/lab_id/);
+    const r = await post(other.key, file("parsers/delimited/fixtures/cv-tab-mmss.txt"));
     expect(r.status).toBe(201);
     expect((await db("runs").where({ id: r.body.run_id }).first())!.lab_id).toBe(otherAdmin.labId);
     expect(await db("runs").where({ lab_id: admin.labId, name: "cv-tab-mmss" }).first()).toBeUndefined();
