@@ -1,6 +1,7 @@
 // The foundation as a person meets it: sign-in, each role's navigation, lockout, redirects and 403s.
 import path from "node:path";
 import { afterEach, beforeEach, describe, expect, inject, it } from "vitest";
+import { WRONG_CREDENTIALS } from "@/lib/auth/sign-in";
 import type { BrowserContext, Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { AREAS } from "@/lib/navigation";
@@ -52,7 +53,7 @@ describe("sign-in refusals", () => {
     await signIn(page, baseURL, analyst.email, "not-the-password");
     const alert = page.getByTestId("sign-in-error");
     await alert.waitFor();
-    expect(await alert.textContent()).toBe("The e-mail or password is not right. Check both and try again.");
+    expect(await alert.textContent()).toBe(WRONG_CREDENTIALS);
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     await page.screenshot({ path: path.join(artifacts, "sign-in-wrong-password.png") });
   });

@@ -4,6 +4,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { simpleParser } from "mailparser";
 import { afterAll, describe, expect, inject, it } from "vitest";
+import { WRONG_CREDENTIALS } from "@/lib/auth/sign-in";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { openBrowser, signedInPage, signIn } from "./chromium";
@@ -39,7 +40,7 @@ describe("with scripts off", () => {
     expect((await form.getAttribute("method"))?.toLowerCase()).toBe("post");
 
     await signIn(page, baseURL, analyst.email, "wrong-but-secret-9");
-    await expect.poll(() => page.getByTestId("sign-in-error").textContent()).toBe("The e-mail or password is not right. Check both and try again.");
+    await expect.poll(() => page.getByTestId("sign-in-error").textContent()).toBe(WRONG_CREDENTIALS);
     // The e-mail is kept, the password is not.
     expect(await page.getByLabel("E-mail").inputValue()).toBe(analyst.email);
 
