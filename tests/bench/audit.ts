@@ -7,31 +7,9 @@ import { openDb } from "@/db";
 import { migrateToLatest } from "@/db/migrate";
 import { rowHash, verifyAuditTrail } from "@/lib/audit";
 import { auditMac, headMac } from "@/lib/audit/key";
+import { mb, measure } from "./measure";
 
 const ROWS = 200_000;
-
-function mb(bytes: number): string {
-  return `${(bytes / 1048576).toFixed(1)} MB`;
-}
-
-/** Peak RSS and heap growth while `f` runs, sampled every 5 ms. */
-async function measure<T>(f: () => Promise<T>): Promise<{ ms: number; rss: number; heap: number; value: T }> {
-  global.gc?.();
-  const base = process.memoryUsage();
-  let rss = 0,
-    heap = 0;
-  const timer = setInterval(() => {
-    const m = process.memoryUsage();
-    rss = Math.max(rss, m.rss - base.rss);
-    heap = Math.max(heap, m.heapUsed - base.heapUsed);
-  }, 5);
-  const t0 = performance.now();
-  const value = await f();
-  const ms = performance.now() - t0;
-  clearInterval(timer);
-  const m = process.memoryUsage();
-  return { ms, rss: Math.max(rss, m.rss - base.rss), heap: Math.max(heap, m.heapUsed - base.heapUsed), value };
-}
 
 export async function benchAudit(): Promise<void> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-audit-bench-"));

@@ -1,17 +1,20 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula`, `-- ingest` or `-- audit` runs one part.
+// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit` or `-- limits` runs one part.
 import { benchAudit } from "./audit";
 import { benchEngine } from "./engine";
 import { benchFormula } from "./formula";
 import { benchIngest } from "./ingest";
+import { benchLimits } from "./limits";
 
 const only = process.argv[2];
 console.log(`Halflight benchmarks on Node ${process.version}, ${process.platform}/${process.arch}`);
 if (!only || only === "engine") benchEngine();
 if (!only || only === "formula") benchFormula();
 if (!only || only === "ingest") benchIngest();
-if (!only || only === "audit")
-  benchAudit().catch((e: unknown) => {
-    console.error(e);
-    process.exitCode = 1;
-  });
+(async () => {
+  if (!only || only === "audit") await benchAudit();
+  if (!only || only === "limits") await benchLimits();
+})().catch((e: unknown) => {
+  console.error(e);
+  process.exitCode = 1;
+});
