@@ -12,6 +12,9 @@ const USAGE = `Usage: npm run --silent cli -- <verb> FILE [options]
 
   parse FILE --json                         read an export through the parsers
   ingest FILE [--lab SLUG] [--json]         store an export in DATABASE_FILE
+  setup --lab NAME --slug SLUG --admin-email EMAIL --admin-name NAME [--json]
+                                            a new lab and its first administrator (password from
+                                            HALFLIGHT_ADMIN_PASSWORD or standard input)
   fit FILE [--series NAME] (--model NAME | --formula EXPR) [--fix P=V]... [--start P=V]...
            [--interval SECONDS] --json      fit a kinetic model (time in seconds)
   arrhenius FILE --json                     activation energy and Eyring parameters
@@ -199,6 +202,13 @@ export async function runCli(argv: string[]): Promise<{ code: number; out?: stri
     } else if (verb === "fit") result = cmdFit(rest);
     else if (verb === "arrhenius") result = cmdArrhenius(rest);
     else if (verb === "ingest") result = await cmdIngest(rest);
+    else if (verb === "setup") {
+      const { setupCommand } = await import("./setup");
+      const r = (await setupCommand(rest)) as { lab_id: number; user_id: number };
+      if (!rest.includes("--json")) return { code: 0, out: `Lab ${r.lab_id} created with its administrator (user ${r.user_id}). Start the server with npm start and sign in.
+` };
+      result = r;
+    }
     else if (verb === "validate") {
       const { values } = parseArgs({ args: rest, allowPositionals: false, options: { json: { type: "boolean" }, reference: { type: "string" } } });
       const { runValidation } = await import("@/lib/validation");

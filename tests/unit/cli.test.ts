@@ -169,3 +169,64 @@ describe("cli verbs in-process", () => {
     expect(run("ingest", CV, "--lab", "nowhere").stderr).toMatch(/no lab with the slug "nowhere"/);
   });
 });
+
+describe("cli setup (spawned): a real lab and its first administrator", () => {
+  const run = (args: string[], env: Record<string, string>, input?: string) =>
+    spawnSync("npm", ["run", "--silent", "cli", "--", "setup", ...args], { encoding: "utf8", input, env: { ...process.env, ...env } });
+  const args = ["--lab", "North Shore Stability Lab", "--slug", "north-shore", "--admin-email", "Head@North.example", "--admin-name", "R. Okafor", "--json"];
+
+  it("creates the lab and its administrator (no demo data), refuses a second time, and the administrator can sign in", async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-setup-"));
+    const file = path.join(dir, "lab.sqlite");
+    try {
+      const r = run(args, { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "a long and private passphrase" });
+      expect(r.status, r.stderr).toBe(0);
+      const out = JSON.parse(r.stdout) as { lab_id: number; user_id: number };
+      expect(out).toEqual({ lab_id: expect.any(Number), user_id: expect.any(Number) });
+      const { openDb } = await import("@/db");
+      const { signInWithPassword } = await import("@/lib/auth/sign-in");
+      const db = openDb(file);
+      try {
+        expect(await db("labs").select("slug", "name")).toEqual([{ slug: "north-shore", name: "North Shore Stability Lab" }]);
+        expect(Number((await db("runs").count({ n: "*" }))[0]!.n)).toBe(0);
+        const me = await signInWithPassword(db, "head@north.example", "a long and private passphrase");
+        expect(me).toMatchObject({ role: "admin", labSlug: "north-shore", name: "R. Okafor" });
+        const actions = (await db("audit_events").orderBy("id").select("action")).map((a) => a.action);
+        expect(actions.slice(0, 2)).toEqual(["lab.created", "member.added"]);
+        const counts = async () => [Number((await db("labs").count({ n: "*" }))[0]!.n), Number((await db("users").count({ n: "*" }))[0]!.n)];
+        const before = await counts();
+        // The same slug again: refused, named, nothing written.
+        const again = run(args.map((a) => (a === "Head@North.example" ? "other@north.example" : a)), { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "a different private passphrase" });
+        expect(again.status).not.toBe(0);
+        expect(again.stderr).toMatch(/slug "north-shore" already exists; nothing was written/);
+        // The same e-mail under a new slug: refused too.
+        const email = run(args.map((a) => (a === "north-shore" ? "south-shore" : a)), { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "a different private passphrase" });
+        expect(email.stderr).toMatch(/head@north\.example already has an account/);
+        expect(await counts()).toEqual(before);
+      } finally {
+        await db.destroy();
+      }
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it("reads the password from standard input, and refuses a weak one or a bad slug without writing", () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-setup-"));
+    const file = path.join(dir, "lab.sqlite");
+    const env = { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "" };
+    delete (env as Record<string, string | undefined>).HALFLIGHT_ADMIN_PASSWORD;
+    try {
+      const weak = run(args, env, "short\n");
+      expect(weak.status).not.toBe(0);
+      expect(weak.stderr).toMatch(/at least 12 characters.*Nothing was written/s);
+      const slug = run(args.map((a) => (a === "north-shore" ? "North Shore!" : a)), env, "a long and private passphrase\n");
+      expect(slug.stderr).toMatch(/slug: A slug is lower-case letters/);
+      const ok = run(args, env, "a long and private passphrase\n");
+      expect(ok.status, ok.stderr).toBe(0);
+      expect(JSON.parse(ok.stdout).lab_id).toBe(1);
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
