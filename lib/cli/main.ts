@@ -3,7 +3,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { parseArgs } from "node:util";
-import { arrhenius, celsiusToKelvin, ENGINE_VERSION, fitKinetics, FitSpecError, MODEL_NAMES, TemperatureDataError, type FitResult, type RatePoint } from "@/lib/kinetics";
+import { arrhenius, celsiusToKelvin, ENGINE_VERSION, fitGlobal, fitKinetics, FitSpecError, GlobalFitError, MODEL_NAMES, TemperatureDataError, type FitResult, type GlobalFitResult, type GlobalRun, type RatePoint } from "@/lib/kinetics";
 import { parseExport, ParseError, type ParsedExport } from "@/parsers";
 import { locateTable } from "@/parsers/delimited/parse";
 import { readNumber } from "@/parsers/text";
@@ -18,6 +18,8 @@ const USAGE = `Usage: npm run --silent cli -- <verb> FILE [options]
   fit FILE [--series NAME] (--model NAME | --formula EXPR) [--fix P=V]... [--start P=V]...
            [--interval SECONDS] --json      fit a kinetic model (time in seconds)
   arrhenius FILE --json                     activation energy and Eyring parameters
+  global FILE... --model NAME (--arrhenius [--tref C] | --shared P[,P...]) --json
+                                            fit every file's first series at once, some parameters shared
   validate [--json] [--reference DIR]       the built-in validation run (exit 1 if a case fails)
 
 Models: ${MODEL_NAMES.join(", ")}
@@ -186,6 +188,51 @@ function cmdArrhenius(argv: string[]): unknown {
   }
 }
 
+function cmdGlobal(argv: string[]): unknown {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { model: { type: "string" }, arrhenius: { type: "boolean" }, tref: { type: "string" }, shared: { type: "string" }, json: { type: "boolean" } },
+  });
+  if (positionals.length < 2) throw new CliError("global needs two or more FILEs.", 2);
+  if (!values.model) throw new CliError("global needs --model NAME (for example --model first-order).", 2);
+  if (Boolean(values.arrhenius) === Boolean(values.shared)) throw new CliError("global needs exactly one of --arrhenius or --shared P[,P...].", 2);
+  if (values.tref !== undefined && !values.arrhenius) throw new CliError("--tref goes with --arrhenius.", 2);
+  const trefC = values.tref === undefined ? undefined : Number(values.tref);
+  if (trefC !== undefined && !Number.isFinite(trefC)) throw new CliError(`--tref ${values.tref}: give the reference temperature in °C as a number.`, 2);
+  const runs: GlobalRun[] = positionals.map((file) => {
+    const p = parseFile(file);
+    const s = p.series[0]!;
+    const tc = typeof p.metadata.temperature_c === "number" ? p.metadata.temperature_c : null;
+    if (values.arrhenius && tc === null) throw new CliError(`${file}: no temperature in the file's metadata; the Arrhenius form needs each run's temperature (a line such as "Temperature: 25 °C").`);
+    return { label: file, t: s.t, y: s.y, temperatureK: tc === null ? null : celsiusToKelvin(tc) };
+  });
+  let r: GlobalFitResult;
+  try {
+    r = fitGlobal(values.model, runs, values.arrhenius ? { kind: "arrhenius", trefK: trefC === undefined ? undefined : celsiusToKelvin(trefC) } : { kind: "shared", shared: values.shared!.split(",").map((x) => x.trim()).filter(Boolean) });
+  } catch (e) {
+    if (e instanceof GlobalFitError) throw new CliError(e.message);
+    throw e;
+  }
+  const kelvinToC = (k: number | null) => (k === null ? null : Math.round((k - 273.15) * 1e9) / 1e9);
+  return {
+    model: r.model,
+    shared: r.shared,
+    tref_c: kelvinToC(r.tref_k),
+    n: r.n,
+    dof: r.dof,
+    ssr: r.ssr,
+    parameters: r.parameters,
+    runs: r.runs.map((x) => ({ file: x.label, temperature_c: kelvinToC(x.temperature_k), n: x.n, parameters: x.parameters, k: x.k, ssr_share: x.ssr_share, runs_z: x.runs_z })),
+    correlation: r.correlation,
+    converged: r.converged,
+    iterations: r.iterations,
+    message: r.message,
+    warnings: r.warnings,
+    engine: ENGINE_VERSION,
+  };
+}
+
 async function cmdIngest(argv: string[]): Promise<unknown> {
   const { ingestCommand } = await import("./ingest");
   return ingestCommand(argv);
@@ -201,6 +248,7 @@ export async function runCli(argv: string[]): Promise<{ code: number; out?: stri
       result = seriesForCli(parseFile(positionals[0] ?? (readFileBytes(undefined) as never)));
     } else if (verb === "fit") result = cmdFit(rest);
     else if (verb === "arrhenius") result = cmdArrhenius(rest);
+    else if (verb === "global") result = cmdGlobal(rest);
     else if (verb === "ingest") result = await cmdIngest(rest);
     else if (verb === "setup") {
       const { setupCommand } = await import("./setup");

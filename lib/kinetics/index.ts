@@ -5,6 +5,7 @@ export * from "./criteria";
 export * from "./diagnostics";
 export * from "./fit";
 export * from "./formula";
+export * from "./global";
 export * from "./linearized";
 export * from "./lm";
 export * from "./models";

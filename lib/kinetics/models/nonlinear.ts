@@ -27,6 +27,7 @@ export function nonlinearDescriptor(meta: Omit<ModelDescriptor, "fit" | "curve" 
   return {
     ...meta,
     family: "nonlinear",
+    fn: model,
     curve(t, values) {
       const out = new Float64Array(t.length);
       model.evaluate(t, names.map((n) => values[n]!), out);

@@ -44,6 +44,8 @@ export interface ModelDescriptor {
   fit(t: Float64Array, y: Float64Array, spec: FitSpec): FitResult;
   /** The fitted curve at any times from the fitted values (plots on any grid); null for straight-line methods. */
   curve: ((t: Float64Array, values: Record<string, number>) => Float64Array) | null;
+  /** A built-in nonlinear model's function and Jacobian (global fits build on it); absent for the others. */
+  fn?: NonlinearModel;
 }
 
 /** A built-in nonlinear model: the function, its Jacobian, bounds, start rule and how it moves to another time origin. */
