@@ -123,15 +123,21 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
     return S + run * own.length + own.indexOf(name);
   };
 
-  // Start values: each run fitted alone; shared values from those fits (Arrhenius: the line of ln k on 1/T).
+  // Start values: each run's own start rule (a grid search on k, the amplitudes by linear least squares), refined by
+  // a fit of the run alone only where the rule gives nothing; shared values from those (Arrhenius: ln k on 1/T).
   const alone = runs.map((r) => {
-    const res = MODELS.find((m) => m.id === modelId)!.fit(r.t, r.y, {});
+    const t0 = r.t[0]!;
+    const s = fn.starts(r.t.map((x) => x - t0), r.y, {})[0];
     const v: Record<string, number> = {};
-    for (const p of res.parameters) if (p.value !== null && Number.isFinite(p.value)) v[p.name] = p.value;
-    if (!mp.every((p) => p in v)) {
-      const s = fn.starts(r.t.map((x) => x - r.t[0]!), r.y, {})[0]!;
-      for (const p of mp) v[p] ??= s[p]!;
+    if (s && mp.every((p) => Number.isFinite(s[p]))) {
+      const moved = fn.toOrigin ? fn.toOrigin(s, t0).values : s;
+      for (const p of mp) v[p] = moved[p] ?? s[p]!;
     }
+    if (!mp.every((p) => Number.isFinite(v[p]))) {
+      const res = MODELS.find((m) => m.id === modelId)!.fit(r.t, r.y, {});
+      for (const p of res.parameters) if (p.value !== null && Number.isFinite(p.value)) v[p.name] = p.value;
+    }
+    if (!mp.every((p) => Number.isFinite(v[p]))) throw new GlobalFitError(`${r.label}: no start values could be found for ${modelId}; check the run alone first.`);
     return v;
   });
   const x0 = new Float64Array(P);
@@ -177,9 +183,16 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
   const pBuf = new Float64Array(mp.length);
   const fitted = runs.map((r) => new Float64Array(r.t.length));
   const local = runs.map((r) => new Float64Array(r.t.length * mp.length));
+  // Shared columns reach every row; a run's own columns only its rows.
+  const support: Array<[number, number]> = Array.from({ length: P }, (_, j) => {
+    if (j < S) return [0, N];
+    const run = Math.floor((j - S) / own.length);
+    return [offsets[run]!, offsets[run]! + runs[run]!.t.length];
+  });
   const problem: LsqProblem = {
     n: N,
     p: P,
+    support,
     residuals(x, out) {
       runs.forEach((r, i) => {
         runParams(x, i, pBuf);
@@ -215,7 +228,8 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
     },
   };
 
-  const lm = levenbergMarquardt(problem, x0, { lower, deadline: opts.deadline ?? Date.now() + FIT_TIME_BUDGET_MS });
+  // Normal equations for the steps (the engine falls back to QR when they are ill-conditioned); covariance from QR.
+  const lm = levenbergMarquardt(problem, x0, { lower, solver: "normal-equations", deadline: opts.deadline ?? Date.now() + FIT_TIME_BUDGET_MS });
   const dof = N - P;
   const base = { model: modelId, form: form.kind, shared: sharedNames, tref_k: trefK, n: N, dof };
   if (!lm.converged || !Number.isFinite(lm.ssr)) {

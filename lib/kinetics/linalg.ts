@@ -131,12 +131,19 @@ export function streamingQR(
  * this to keep about 10 digits of a step (smallest/largest Cholesky pivot below 1e-3, i.e. cond(G_s) above ~1e6):
  * the caller then uses QR.
  */
-export function gramFactor(a: Float64Array, n: number, columns: readonly number[], b: Float64Array): { R: Float64Array; qtb: Float64Array; G: Float64Array; g: Float64Array } | null {
+export function gramFactor(
+  a: Float64Array,
+  n: number,
+  columns: readonly number[],
+  b: Float64Array,
+  /** Per column of `a`, the rows [start, end) outside which it is zero (block-structured problems); all rows when absent. */
+  support?: ReadonlyArray<readonly [number, number]>,
+): { R: Float64Array; qtb: Float64Array; G: Float64Array; g: Float64Array } | null {
   const p = columns.length;
   const G = new Float64Array(p * p);
   const g = new Float64Array(p);
   const off = columns.map((c) => c * n);
-  if (p === 3) {
+  if (p === 3 && !support) {
     // The common case (three-parameter kinetic models), unrolled.
     const [o0, o1, o2] = off as [number, number, number];
     let g00 = 0, g01 = 0, g02 = 0, g11 = 0, g12 = 0, g22 = 0, b0 = 0, b1 = 0, b2 = 0;
@@ -148,18 +155,21 @@ export function gramFactor(a: Float64Array, n: number, columns: readonly number[
     G.set([g00, g01, g02, g01, g11, g12, g02, g12, g22]);
     g.set([b0, b1, b2]);
   } else {
+    const rows = columns.map((c) => support?.[c] ?? ([0, n] as const));
     for (let j = 0; j < p; j++)
       for (let k = j; k < p; k++) {
         let sum = 0;
         const oj = off[j]!, ok = off[k]!;
-        for (let i = 0; i < n; i++) sum += a[oj + i]! * a[ok + i]!;
+        const lo = Math.max(rows[j]![0], rows[k]![0]),
+          hi = Math.min(rows[j]![1], rows[k]![1]);
+        for (let i = lo; i < hi; i++) sum += a[oj + i]! * a[ok + i]!;
         G[j * p + k] = sum;
         G[k * p + j] = sum;
       }
     for (let j = 0; j < p; j++) {
       let sum = 0;
       const oj = off[j]!;
-      for (let i = 0; i < n; i++) sum += a[oj + i]! * b[i]!;
+      for (let i = rows[j]![0]; i < rows[j]![1]; i++) sum += a[oj + i]! * b[i]!;
       g[j] = sum;
     }
   }

@@ -12,6 +12,8 @@ export interface LsqProblem {
   residuals(x: Float64Array, out: Float64Array): void;
   /** Weighted Jacobian of the residuals, n×p column-major, into `J`. */
   jacobian(x: Float64Array, J: Float64Array): void;
+  /** Per parameter, the residual rows [start, end) outside which its Jacobian column is zero (block-structured problems). */
+  support?: ReadonlyArray<readonly [number, number]>;
 }
 
 export interface LmOptions {
@@ -104,7 +106,7 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
     problem.jacobian(x, Jfull);
     // Column norms and the gradient: from the Gram pass when the normal equations are in use (it computes them
     // anyway), otherwise from one pass over J.
-    const gram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, freeIndex, r) : null;
+    const gram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, freeIndex, r, problem.support) : null;
     for (let k = 0; k < pf; k++) {
       let s = 0,
         g = 0;
@@ -134,7 +136,7 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
     pw = work.length;
     const cols = work.map((k) => freeIndex[k]!);
     // The Gram factor of all free columns serves as it is when nothing is held on a bound.
-    const factored = gram && pw === pf ? gram : opts.solver === "normal-equations" ? gramFactor(Jfull, n, cols, r) : null;
+    const factored = gram && pw === pf ? gram : opts.solver === "normal-equations" ? gramFactor(Jfull, n, cols, r, problem.support) : null;
     const { R: Rw, qtb } = factored ?? streamingQR(Jfull, n, cols, r);
     R = Rw;
     qtr = qtb;
@@ -187,7 +189,7 @@ export function levenbergMarquardt(problem: LsqProblem, start: ArrayLike<number>
       // of parameter units without a second factorisation.
       // A well-conditioned Gram factor is accurate enough here (its error grows with cond², which it has bounded);
       // otherwise, and always on the QR path, the R of J itself.
-      const gram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, freeIndex, r) : null;
+      const gram = opts.solver === "normal-equations" ? gramFactor(Jfull, n, freeIndex, r, problem.support) : null;
       const Rall = gram ? gram.R : streamingQR(Jfull, n, freeIndex, r).R;
       const Rs = new Float64Array(pf * pf);
       for (let i = 0; i < pf; i++) for (let k = i; k < pf; k++) Rs[i * pf + k] = Rall[i * pf + k]! / (colNorm[k]! || 1);

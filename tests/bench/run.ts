@@ -1,8 +1,9 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit` or `-- limits` runs one part.
+// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits` or `-- global` runs one part.
 import { benchAudit } from "./audit";
 import { benchEngine } from "./engine";
 import { benchFormula } from "./formula";
+import { benchGlobal } from "./global";
 import { benchIngest } from "./ingest";
 import { benchLimits } from "./limits";
 
@@ -11,6 +12,7 @@ console.log(`Halflight benchmarks on Node ${process.version}, ${process.platform
 if (!only || only === "engine") benchEngine();
 if (!only || only === "formula") benchFormula();
 if (!only || only === "ingest") benchIngest();
+if (!only || only === "global") benchGlobal();
 (async () => {
   if (!only || only === "audit") await benchAudit();
   if (!only || only === "limits") await benchLimits();
