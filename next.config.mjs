@@ -31,7 +31,7 @@ const securityHeaders = [
 
 const nextConfig = {
   // Knex resolves optional database drivers at run time; bundling it breaks the build.
-  serverExternalPackages: ["knex", "better-sqlite3"],
+  serverExternalPackages: ["knex", "better-sqlite3", "pg"],
   // forbidden() gives protected pages a real 403 status.
   experimental: { authInterrupts: true },
   poweredByHeader: false,

@@ -1,6 +1,6 @@
 // The database handle: one Knex instance per process, opened on DATABASE_FILE (SQLite by default).
 import knex, { type Knex } from "knex";
-import { DEFAULT_DATABASE_FILE, sqliteConfig } from "./config";
+import { configuredDatabase, sqliteConfig } from "./config";
 import { migrateToLatest } from "./migrate";
 import fs from "node:fs";
 import path from "node:path";
@@ -14,10 +14,17 @@ export function openDb(file: string): Knex {
 
 const holder = globalThis as unknown as { __halflightDb?: Promise<Knex> };
 
+/** The configured database (PostgreSQL when DATABASE_URL is set, else SQLite at DATABASE_FILE), not yet migrated. */
+export function openConfiguredDb(): { db: Knex; where: string } {
+  const c = configuredDatabase();
+  if (c.kind === "sqlite") return { db: openDb(c.where), where: c.where };
+  return { db: knex(c.config), where: c.where };
+}
+
 /** The process-wide database, migrated on first use. */
 export function getDb(): Promise<Knex> {
   holder.__halflightDb ??= (async () => {
-    const db = openDb(process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE);
+    const { db } = openConfiguredDb();
     await migrateToLatest(db);
     return db;
   })();

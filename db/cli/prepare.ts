@@ -1,16 +1,14 @@
 // `npm run demo` step one: migrate DATABASE_FILE and seed the demo scenario when the database is empty.
-import { DEFAULT_DATABASE_FILE } from "../config";
-import { openDb } from "../index";
+import { openConfiguredDb } from "../index";
 import { migrateToLatest } from "../migrate";
 import { DEMO_USERS, seedDemoWhenEmpty } from "../seeds/demo";
 import { authSecret } from "../../lib/auth/secret";
 
 async function main() {
-  const file = process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE;
-  const db = openDb(file);
+  const { db, where } = openConfiguredDb();
   try {
     await migrateToLatest(db);
-    console.log(`Database ready: ${file}`);
+    console.log(`Database ready: ${where}`);
     if (process.argv.includes("--no-seed")) return;
     if (await seedDemoWhenEmpty(db, new Date(), { runs: true })) {
       console.log("Demo lab seeded. Demo accounts (demo passwords, never for real data):");

@@ -3,8 +3,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { parseArgs } from "node:util";
-import { openDb } from "@/db";
-import { DEFAULT_DATABASE_FILE } from "@/db/config";
+import { openConfiguredDb } from "@/db";
 import { migrateToLatest } from "@/db/migrate";
 import { resolveLabForCli } from "@/lib/admin/labs";
 import { AppError } from "@/lib/errors";
@@ -21,7 +20,7 @@ export async function ingestCommand(argv: string[]): Promise<unknown> {
   } catch {
     throw new CliError(`${file}: no such file, or it cannot be read.`);
   }
-  const db = openDb(process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE);
+  const { db } = openConfiguredDb();
   try {
     await migrateToLatest(db);
     const lab = await resolveLabForCli(db, values.lab);

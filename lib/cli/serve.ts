@@ -3,8 +3,7 @@
 // admin's Demo inbox page) and may generate its keys; outside the demo a missing secret or mail server stops the start.
 import { spawn } from "node:child_process";
 import path from "node:path";
-import { DEFAULT_DATABASE_FILE } from "@/db/config";
-import { openDb } from "@/db";
+import { openConfiguredDb } from "@/db";
 import { checkWritable } from "@/db/writable";
 import { startMailSink } from "../mail/sink";
 
@@ -22,10 +21,9 @@ async function main() {
     if (missing.length) throw new Error(`Halflight will not start without:\n  - ${missing.join("\n  - ")}\nSet them in the environment (README: "Run it for a real lab"), or run the demo with npm run demo.`);
   }
   // The database must take a write before the server says it is ready.
-  const file = env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE;
-  const db = openDb(file);
+  const { db, where } = openConfiguredDb();
   try {
-    await checkWritable(db, path.resolve(file));
+    await checkWritable(db, where);
   } finally {
     await db.destroy();
   }

@@ -2,8 +2,7 @@
 // administrator in the configured database (migrated first when new), no demo data. The password comes from
 // HALFLIGHT_ADMIN_PASSWORD, else standard input; refused input writes nothing.
 import { parseArgs } from "node:util";
-import { openDb } from "@/db";
-import { DEFAULT_DATABASE_FILE } from "@/db/config";
+import { openConfiguredDb } from "@/db";
 import { migrateToLatest } from "@/db/migrate";
 import { setupLab, setupSchema } from "@/lib/admin/setup";
 import { AppError } from "@/lib/errors";
@@ -33,7 +32,7 @@ export async function setupCommand(argv: string[]): Promise<unknown> {
   const password = process.env.HALFLIGHT_ADMIN_PASSWORD ?? (await readStdin());
   const parsed = setupSchema.safeParse({ lab: values.lab, slug: values.slug, adminEmail: values["admin-email"], adminName: values["admin-name"], password });
   if (!parsed.success) throw new CliError(parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("\n") + "\nNothing was written.");
-  const db = openDb(process.env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE);
+  const { db } = openConfiguredDb();
   try {
     await migrateToLatest(db);
     return await setupLab(db, parsed.data, `cli setup (${process.env.USER ?? "unknown user"})`);

@@ -5,6 +5,7 @@ import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { runCli } from "@/lib/cli/main";
+import { emptyTarget } from "../helpers/db";
 
 const CV = "fixtures/published/crystal-violet-590nm.csv";
 const FIX = "parsers/delimited/fixtures";
@@ -177,15 +178,14 @@ describe("cli setup (spawned): a real lab and its first administrator", () => {
 
   it("creates the lab and its administrator (no demo data), refuses a second time, and the administrator can sign in", async () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-setup-"));
-    const file = path.join(dir, "lab.sqlite");
+    const target = await emptyTarget(path.join(dir, "lab.sqlite"));
     try {
-      const r = run(args, { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "a long and private passphrase" });
+      const r = run(args, { ...target.env, HALFLIGHT_ADMIN_PASSWORD: "a long and private passphrase" });
       expect(r.status, r.stderr).toBe(0);
       const out = JSON.parse(r.stdout) as { lab_id: number; user_id: number };
       expect(out).toEqual({ lab_id: expect.any(Number), user_id: expect.any(Number) });
-      const { openDb } = await import("@/db");
       const { signInWithPassword } = await import("@/lib/auth/sign-in");
-      const db = openDb(file);
+      const db = target.open();
       try {
         expect(await db("labs").select("slug", "name")).toEqual([{ slug: "north-shore", name: "North Shore Stability Lab" }]);
         expect(Number((await db("runs").count({ n: "*" }))[0]!.n)).toBe(0);
@@ -196,11 +196,11 @@ describe("cli setup (spawned): a real lab and its first administrator", () => {
         const counts = async () => [Number((await db("labs").count({ n: "*" }))[0]!.n), Number((await db("users").count({ n: "*" }))[0]!.n)];
         const before = await counts();
         // The same slug again: refused, named, nothing written.
-        const again = run(args.map((a) => (a === "Head@North.example" ? "other@north.example" : a)), { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "a different private passphrase" });
+        const again = run(args.map((a) => (a === "Head@North.example" ? "other@north.example" : a)), { ...target.env, HALFLIGHT_ADMIN_PASSWORD: "a different private passphrase" });
         expect(again.status).not.toBe(0);
         expect(again.stderr).toMatch(/slug "north-shore" already exists; nothing was written/);
         // The same e-mail under a new slug: refused too.
-        const email = run(args.map((a) => (a === "north-shore" ? "south-shore" : a)), { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "a different private passphrase" });
+        const email = run(args.map((a) => (a === "north-shore" ? "south-shore" : a)), { ...target.env, HALFLIGHT_ADMIN_PASSWORD: "a different private passphrase" });
         expect(email.stderr).toMatch(/head@north\.example already has an account/);
         expect(await counts()).toEqual(before);
       } finally {
@@ -211,10 +211,10 @@ describe("cli setup (spawned): a real lab and its first administrator", () => {
     }
   });
 
-  it("reads the password from standard input, and refuses a weak one or a bad slug without writing", () => {
+  it("reads the password from standard input, and refuses a weak one or a bad slug without writing", async () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-setup-"));
-    const file = path.join(dir, "lab.sqlite");
-    const env = { DATABASE_FILE: file, HALFLIGHT_ADMIN_PASSWORD: "" };
+    const target = await emptyTarget(path.join(dir, "lab.sqlite"));
+    const env = { ...target.env, HALFLIGHT_ADMIN_PASSWORD: "" };
     delete (env as Record<string, string | undefined>).HALFLIGHT_ADMIN_PASSWORD;
     try {
       const weak = run(args, env, "short\n");

@@ -10,7 +10,7 @@ import type { SignedInUser } from "@/lib/auth/sign-in";
 import { verifyAuditChain } from "@/lib/audit";
 import { ingestExport, INGEST_LIMITS, sha256Hex } from "@/lib/ingest";
 import { readSeries } from "@/lib/runs";
-import { freshDb, signInAs } from "./../helpers/db";
+import { failInserts, freshDb, signInAs } from "./../helpers/db";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
 vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
@@ -117,13 +117,13 @@ describe("preview and store", () => {
 
   it("a write that fails half-way leaves every table as it was", async () => {
     const before = await countIngestRows(db);
-    await db.raw("CREATE TRIGGER fail_series BEFORE INSERT ON series BEGIN SELECT RAISE(ABORT, 'disk full (simulated)'); END");
+    const undo = await failInserts(db, "series", "disk full (simulated)");
     try {
       await expect(
         ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes: new Uint8Array(fs.readFileSync(`${FIX}/cv-iso.csv`)), fileName: "cv-iso.csv" }),
       ).rejects.toThrow(/disk full/);
     } finally {
-      await db.raw("DROP TRIGGER fail_series");
+      await undo();
     }
     expect(await countIngestRows(db)).toEqual(before);
   });

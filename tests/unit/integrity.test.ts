@@ -15,7 +15,7 @@ import { saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { checkLabIntegrity, verifyFitVersion } from "@/lib/integrity";
 import { rawFileDownload } from "@/lib/runs";
-import { signInAs } from "../helpers/db";
+import { freshDb, liftGuards, onPostgres, signInAs } from "../helpers/db";
 
 let db: Knex;
 let analyst: SignedInUser, admin: SignedInUser;
@@ -23,9 +23,12 @@ let fitId: number, runId: number, rawFileId: number;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-tamper-"));
 
 beforeAll(async () => {
-  // A database file, as a lab's copy would be.
-  db = openDb(path.join(dir, "copy.sqlite"));
-  await migrateToLatest(db);
+  // A database file, as a lab's copy would be (or a database of its own on the PostgreSQL test cluster).
+  if (onPostgres) db = await freshDb();
+  else {
+    db = openDb(path.join(dir, "copy.sqlite"));
+    await migrateToLatest(db);
+  }
   setDb(db);
   await seedDemoWhenEmpty(db, new Date(), { runs: true });
   analyst = await signInAs(db, "analyst");
@@ -58,7 +61,7 @@ describe("verification recomputes what is stored", () => {
   });
 
   it("results edited with the content hash kept are reported", async () => {
-    await db.raw("DROP TRIGGER fits_immutable");
+    await liftGuards(db, "fits");
     const f = (await db("fits").where({ id: fitId }).first())!;
     const results = JSON.parse(f.results);
     results.models[0].result.parameters.find((p: { name: string }) => p.name === "k").value *= 1.1;
@@ -69,7 +72,7 @@ describe("verification recomputes what is stored", () => {
   });
 
   it("points behind a record changed under the trigger are reported", async () => {
-    await db.raw("DROP TRIGGER series_no_update");
+    await liftGuards(db, "series");
     const s = (await db("series").where({ run_id: runId }).first())!;
     const y = Buffer.from(s.y_f64);
     y.writeDoubleLE(y.readDoubleLE(0) + 0.01, 0);
@@ -78,7 +81,7 @@ describe("verification recomputes what is stored", () => {
   });
 
   it("raw bytes replaced: reported, and the download refuses them", async () => {
-    await db.raw("DROP TRIGGER raw_files_no_update");
+    await liftGuards(db, "raw_files");
     await db.raw("UPDATE raw_files SET bytes = ? WHERE id = ?", [Buffer.from("t,A\n0,1\n"), rawFileId]);
     expect((await verifyFitVersion(db, analyst.labId, fitId)).problems.join(" ")).toMatch(/no longer matches its SHA-256/);
     await expect(rawFileDownload(db, analyst.labId, rawFileId)).rejects.toThrow(/no longer matches its SHA-256/);
@@ -88,7 +91,7 @@ describe("verification recomputes what is stored", () => {
     await recordAudit(db, { labId: null, actorUserId: null, action: "probe.one" });
     await recordAudit(db, { labId: null, actorUserId: null, action: "probe.two" });
     expect((await verifyAuditTrail(db)).intact).toBe(true);
-    await db.raw("DROP TRIGGER audit_events_no_delete");
+    await liftGuards(db, "audit_events");
     const newest = (await db("audit_events").orderBy("id", "desc").limit(2).select("id")).map((r) => r.id);
     await db("audit_events").whereIn("id", newest).delete();
     const v = await verifyAuditTrail(db);
@@ -103,7 +106,7 @@ describe("verification recomputes what is stored", () => {
     await db("audit_head").where({ id: 1 }).update({ row_count: count, head_id: last.id, head_hash: last.hash });
     expect((await verifyAuditTrail(db)).problems.join(" ")).toMatch(/head does not match its MAC/);
     // Now rewrite an old row and re-hash every row after it with SHA-256, as the unkeyed chain allowed.
-    await db.raw("DROP TRIGGER audit_events_no_update");
+    await liftGuards(db, "audit_events");
     const { createHash } = await import("node:crypto");
     const rows = await db("audit_events").orderBy("id");
     let prev: string | null = null;

@@ -12,7 +12,7 @@ import { INGEST_LIMITS } from "@/lib/ingest";
 import { parseExport, ParseError } from "@/parsers";
 import { PARSE_LIMITS } from "@/parsers/limits";
 import { checkTextShape } from "@/parsers/text";
-import { freshDb, signInAs } from "../helpers/db";
+import { freshDb, onPostgres, signInAs } from "../helpers/db";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
 vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
@@ -164,7 +164,7 @@ describe("uploads bounded before they are read", () => {
   });
 });
 
-describe("storage that cannot take a write is said in plain words, and nothing is half-written", () => {
+describe.skipIf(onPostgres)("storage that cannot take a write is said in plain words, and nothing is half-written (SQLite: max_page_count, query_only)", () => {
   const csv = (tag: string) => `Time (s),A 590 nm\n0,1.0\n10,0.8\n20,0.64\n30,0.51\n# ${tag}\n`;
   it("a full disk (SQLite's max_page_count reached) answers 507 and stores nothing", async () => {
     const before = await countIngestRows(db);
@@ -194,5 +194,20 @@ describe("storage that cannot take a write is said in plain words, and nothing i
       await db.raw("PRAGMA query_only = OFF");
     }
     expect(await countIngestRows(db)).toEqual(before);
+  });
+});
+
+describe("PostgreSQL's storage refusals map to the same answers", () => {
+  // The codes are PostgreSQL's SQLSTATEs (53100 disk_full, 25006 read_only_sql_transaction, 40001 serialization
+  // failure); the errors here are built by hand, since a full disk cannot be made on demand.
+  it.each([
+    ["53100", 507, /disk is full/],
+    ["25006", 503, /read-only/],
+    ["40001", 503, /busy/],
+  ])("SQLSTATE %s answers %i", async (code, status, words) => {
+    const { toErrorResponse } = await import("@/lib/http/errors");
+    const res = toErrorResponse(Object.assign(new Error("insert into x - refused"), { code }));
+    expect(res.status).toBe(status);
+    expect((await res.json()).error.message).toMatch(words);
   });
 });
