@@ -55,3 +55,19 @@ describe("npm start with a database it cannot write", () => {
     expect(r.stdout).not.toMatch(/Halflight on http/);
   });
 });
+
+describe("npm start without devDependencies", () => {
+  it("runs the bundle npm run build writes (node, no tsx), and the bundle imports only dependencies and Node's own modules", async () => {
+    const pkg = JSON.parse((await import("node:fs")).readFileSync("package.json", "utf8")) as { scripts: Record<string, string>; dependencies: Record<string, string> };
+    expect(pkg.scripts.start).toBe("node dist/serve.mjs");
+    expect(pkg.scripts.build).toMatch(/npm run build:server/);
+    const { build } = await import("esbuild");
+    const r = await build({ entryPoints: ["lib/cli/serve.ts"], bundle: true, platform: "node", format: "esm", packages: "external", write: false, metafile: true, logLevel: "silent" });
+    const imported = new Set<string>();
+    for (const input of Object.values(r.metafile.inputs)) for (const i of input.imports) if (i.external) imported.add(i.path);
+    const { builtinModules } = await import("node:module");
+    const outside = [...imported].filter((p) => !p.startsWith("node:") && !builtinModules.includes(p)).map((p) => (p.startsWith("@") ? p.split("/").slice(0, 2).join("/") : p.split("/")[0]!));
+    expect(outside.length).toBeGreaterThan(0);
+    for (const name of new Set(outside)) expect(pkg.dependencies, `${name} is imported by npm start but is not a dependency`).toHaveProperty(name);
+  });
+});
