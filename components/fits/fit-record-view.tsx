@@ -1,6 +1,7 @@
 // A fit record version: the number with its uncertainty, the review, parameters, what was done, versions.
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { RecordPlot } from "@/components/fits/record-plot";
 import { ReviewPanel } from "@/components/reviews/review-panel";
 import { ShareLinks } from "@/components/reviews/share-links";
 import { PageHeader } from "@/components/shell/page-header";
@@ -86,6 +87,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
         ))}
         <p className="mt-3 text-xs text-ink-500">An estimate for qualified review: shelf-life and release decisions follow your lab&apos;s SOPs and local regulations.</p>
       </section>
+      <RecordPlot rec={rec} labId={labId} />
       {rec.results.method_evaluation && <MethodVerdict ev={rec.results.method_evaluation} linked={!outside} />}
       {user && (
         <div className="mb-6 space-y-6">

@@ -5,10 +5,11 @@ import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
 import { verifyFitVersion } from "@/lib/integrity";
-import { computeFit, getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
+import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { reviewStatus } from "@/lib/reviews";
-import { getRunDetail } from "@/lib/runs";
+import { getRunDetail, readSeries } from "@/lib/runs";
+import { drawSceneOnPdf, fitPlotScene, plotAxisLabel, type PdfSurface } from "./fit-plot";
 
 /** The standard fonts cover Windows-1252 only: exponents become ^n and the few other signs are spelled out. */
 export function printable(s: string): string {
@@ -26,7 +27,8 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   const versions = await versionsOfRecord(db, labId, rec.record_id!);
   const review = await reviewStatus(db, labId, id);
   const audit = await auditRowsOfObject(db, labId, "fit", String(rec.record_id));
-  const { t, y, outcome } = await computeFit(db, labId, rec.run.id, rec.series.id, rec.options);
+  // The stored points and the stored results: nothing is fitted again to print a record.
+  const { t, y } = await readSeries(db, labId, rec.run.id, rec.series.id);
 
   const doc = new PDFDocument({ size: "A4", margin: 48, info: { Title: `${rec.title} v${rec.version}`, Author: "Halflight", Subject: `content hash ${rec.content_hash}` } });
   const chunks: Buffer[] = [];
@@ -55,29 +57,14 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   const units = recordUnits(rec.results, rec.options);
   line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} ${recordParameterUnit(rec.primary.model, "k", units)}`, 14, "mono");
 
-  // The plot: data (included dots, excluded crosses) and the nonlinear first-order curve, drawn as vectors.
-  const box = { x: 60, y: doc.y + 8, w: 470, h: 170 };
-  const tMin = Math.min(...t),
-    tMax = Math.max(...t),
-    yMin = Math.min(...y),
-    yMax = Math.max(...y);
-  const px = (v: number) => box.x + ((v - tMin) / (tMax - tMin || 1)) * box.w;
-  const py = (v: number) => box.y + box.h - ((v - yMin) / (yMax - yMin || 1)) * box.h;
-  doc.lineWidth(0.5).strokeColor("#a9b1bf").rect(box.x, box.y, box.w, box.h).stroke();
-  for (let i = 0; i < t.length; i += Math.max(1, Math.ceil(t.length / 800))) {
-    if (outcome.included[i]) doc.circle(px(t[i]!), py(y[i]!), 1.4).fillColor("#2b50c8").fill();
-    else doc.strokeColor("#5d687c").moveTo(px(t[i]!) - 2, py(y[i]!) - 2).lineTo(px(t[i]!) + 2, py(y[i]!) + 2).stroke();
-  }
-  const curve = outcome.curves["first-order"];
-  if (curve && curve.t.length > 1) {
-    doc.strokeColor("#d55e00").lineWidth(1.2).moveTo(px(curve.t[0]!), py(curve.fitted[0]!));
-    for (let i = 1; i < curve.t.length; i += Math.max(1, Math.ceil(curve.t.length / 400))) doc.lineTo(px(curve.t[i]!), py(curve.fitted[i]!));
-    doc.stroke();
-  }
+  // The plot: the same scene as the record page (data, the fitted curve, residuals below), drawn as vectors.
+  const scene = fitPlotScene({ t, y, options: rec.options, results: rec.results, model: rec.primary.model, yUnit: plotAxisLabel(rec.results.quantity, units.y) });
+  const top = doc.y + 6;
+  const used = drawSceneOnPdf(doc as unknown as PdfSurface, scene, 44, top, 500, printable);
   doc.fillColor("#1b2230");
-  font("sans").fontSize(8).text(printable(`t from ${formatNumber(tMin, 4)} to ${formatNumber(tMax, 4)} s; y from ${formatNumber(yMin, 4)} to ${formatNumber(yMax, 4)}`), box.x, box.y + box.h + 4);
+  font("sans").fontSize(8).text(printable(`${scene.legend.points} (dots)${scene.legend.outside ? `; ${scene.legend.outside} (rings)` : ""}${scene.legend.line ? `; ${scene.legend.line} (line)` : ""}. Residuals = reading - curve.`), 48, top + used + 2);
   doc.x = 48;
-  doc.y = box.y + box.h + 18;
+  doc.y = top + used + 16;
 
   const ev = rec.results.method_evaluation;
   if (ev) {

@@ -80,6 +80,14 @@ describe("fitting workspace", () => {
     await versions.waitFor();
     await expect(versions.textContent()).resolves.toMatch(/Version 2.*Why: bubble excluded; A∞ measured after 24 h.*point 5 excluded: “air bubble seen in cell 1”.*ainf fixed at 0\.045/s);
     await expect(page.getByTestId("record-options").textContent()).resolves.toMatch(/Point 5 excluded: “air bubble seen in cell 1”/);
+    // The plot the reviewer signs: data, the fitted curve and residuals, drawn on the server with axes and units; the
+    // excluded point is drawn apart (an open ring).
+    const plot = page.getByTestId("record-plot");
+    await expect(plot.locator("svg[role=img] title").textContent()).resolves.toMatch(/version 2: data, fitted curve and residuals/);
+    await expect(plot.locator("svg").textContent()).resolves.toMatch(/absorbance \(AU\).*residual.*t \((s|min)\)/s);
+    expect(await plot.locator("svg polyline").count()).toBe(1);
+    expect(await plot.locator("svg circle").count()).toBe(1);
+    await expect(plot.locator("figcaption").textContent()).resolves.toMatch(/1 outside the fit.*Nonlinear first order fit/);
     await page.screenshot({ path: path.join(artifacts, "fit-record.png"), fullPage: true });
 
     // The CSV's k, printed the page's way, is the page's k.

@@ -55,6 +55,8 @@ describe("review and sign-off", () => {
     await r.goto(link.replace(/^https?:\/\/[^/]+/, baseURL));
     await r.getByTestId("share-banner").waitFor();
     await r.getByRole("heading", { name: /corvane-blue-30C · Cell 1/ }).waitFor();
+    // The reviewer sees the curve they sign: the shared page carries the record's plot.
+    await r.getByTestId("record-plot").locator("svg polyline").waitFor({ state: "attached" });
     await r.getByLabel("Add a comment").fill("Residuals look random; k agrees with the 25 and 40 °C runs.");
     await r.getByRole("button", { name: "Comment" }).click();
     await r.getByTestId("comments").getByText("Residuals look random").waitFor();
@@ -80,6 +82,10 @@ describe("review and sign-off", () => {
     const text = spawnSync("pdftotext", ["-layout", pdfFile, "-"], { encoding: "utf8" }).stdout;
     const hash = (await (await a.request.get(`${baseURL}/api/fits/${fitId}`)).json()).content_hash as string;
     expect(text).toContain("Rafe Okonkwo · APPROVED");
+    // The plot is drawn with its axes: tick labels, the time axis and the residual panel.
+    expect(text).toMatch(/t \((s|min)\)/);
+    expect(text).toMatch(/residual/);
+    expect(text).toMatch(/absorbance \(AU\)|concentration/);
     expect(text.replace(/\s+/g, "")).toContain(hash);
 
     await a.getByRole("link", { name: "Change (new version)" }).click();
