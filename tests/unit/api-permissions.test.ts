@@ -33,7 +33,8 @@ const cvForm = () => {
 // Public by design: next-auth's own endpoints (sign-in, CSRF, session) must be reachable signed out.
 // The invitation link and the instrument upload carry their own credential (a one-time token, an API key): both are
 // tested in admin.test.ts.
-const PUBLIC = new Set(["app/api/auth/[...nextauth]/route.ts", "app/api/invitations/[token]/route.ts", "app/api/ingest/route.ts"]);
+// Public by design: sign-in, the invitee's one-time link, instrument keys, and the load balancer's health check.
+const PUBLIC = new Set(["app/api/auth/[...nextauth]/route.ts", "app/api/invitations/[token]/route.ts", "app/api/ingest/route.ts", "app/api/health/route.ts"]);
 const METHOD_JSON = { definition: { name: "Matrix method", analyte: "corvane blue", wavelength_nm: 590, criteria: [{ kind: "r2_min", value: 0.99 }] } };
 const CAL_JSON = { name: "Matrix calibration", analyte: "corvane blue", standards: [0, 1, 2, 3, 4].map((c) => ({ concentration: c, absorbance: 0.1 * c + 0.001 * (c % 2) })) };
 
