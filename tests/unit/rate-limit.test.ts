@@ -8,7 +8,7 @@ import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import type { Knex } from "knex";
-import { openDb, setDb } from "@/db";
+import { setDb } from "@/db";
 import { migrateToLatest } from "@/db/migrate";
 import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { createApiKey } from "@/lib/admin/api-keys";
@@ -18,7 +18,7 @@ import { RATE_RULES } from "@/lib/http/rate-limit";
 import { saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { createShareLink } from "@/lib/sharing";
-import { freshDb, signInAs } from "../helpers/db";
+import { emptyTarget, freshDb, onPostgres, signInAs } from "../helpers/db";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
 vi.mock("@/lib/auth/session", () => ({ getSessionUser: async () => session.current }));
@@ -109,28 +109,31 @@ describe("share links, API keys and invitations over HTTP", () => {
 });
 
 describe("shared by server processes", () => {
-  it("two processes on one database file count into the same limit", async () => {
+  it(`two processes on one ${onPostgres ? "PostgreSQL database" : "database file"} count into the same limit`, async () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-rl-"));
-    const file = path.join(dir, "lab.sqlite");
-    const setup = openDb(file);
+    const target = await emptyTarget(path.join(dir, "lab.sqlite"));
+    const setup = target.open();
     await migrateToLatest(setup);
     await setup.destroy();
     const script = `
+      import knex from "knex";
       import { openDb } from "@/db";
+      import { postgresConfig } from "@/db/config";
       import { takeOrRefuse } from "@/lib/http/rate-limit";
       (async () => {
-        const db = openDb(process.env.DB_FILE!);
-        let ok = 0, refused = 0;
+        const db = process.env.DATABASE_URL ? knex(postgresConfig(process.env.DATABASE_URL)) : openDb(process.env.DATABASE_FILE!);
+        let ok = 0, refused = 0, keyOk = 0;
         for (let i = 0; i < 25; i++) { try { await takeOrRefuse(db, "signInByAddress", "address 203.0.113.200"); ok++; } catch { refused++; } }
-        console.log(JSON.stringify({ ok, refused }));
+        for (let i = 0; i < 8; i++) { try { await takeOrRefuse(db, "apiKeyFailuresByAddress", "address 203.0.113.200"); keyOk++; } catch { /* refused */ } }
+        console.log(JSON.stringify({ ok, refused, keyOk }));
         await db.destroy();
       })();`;
     const scriptFile = path.join(process.cwd(), `tests/unit/.rl-process-${process.pid}.ts`);
     fs.writeFileSync(scriptFile, script);
     try {
       const run = () =>
-        new Promise<{ ok: number; refused: number }>((resolve, reject) => {
-          const p = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), scriptFile], { env: { ...process.env, DB_FILE: file } });
+        new Promise<{ ok: number; refused: number; keyOk: number }>((resolve, reject) => {
+          const p = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), scriptFile], { env: { ...process.env, ...target.env } });
           let out = "";
           let err = "";
           p.stdout.on("data", (d) => (out += d));
@@ -141,6 +144,8 @@ describe("shared by server processes", () => {
       // 50 attempts in all against one limit of 30: exactly 30 let through, however the two processes interleaved.
       expect(a.ok + b.ok).toBe(RATE_RULES.signInByAddress.points);
       expect(a.refused + b.refused).toBe(50 - RATE_RULES.signInByAddress.points);
+      // The refused-API-key limit too: 16 attempts against a limit of 10.
+      expect(a.keyOk + b.keyOk).toBe(RATE_RULES.apiKeyFailuresByAddress.points);
     } finally {
       fs.rmSync(scriptFile, { force: true });
       fs.rmSync(dir, { recursive: true, force: true });
