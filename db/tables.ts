@@ -277,6 +277,14 @@ export interface DbInvitationRow {
   created_at: string;
 }
 
+export interface DbSetupTokenRow {
+  id: number;
+  token_sha256: string;
+  created_at: string;
+  expires_at: string;
+  used_at: string | null;
+}
+
 export interface DbApiKeyRow {
   id: number;
   lab_id: number;
@@ -311,5 +319,6 @@ declare module "knex/types/tables" {
     lab_settings: DbLabSettingsRow;
     invitations: DbInvitationRow;
     api_keys: DbApiKeyRow;
+    setup_tokens: DbSetupTokenRow;
   }
 }

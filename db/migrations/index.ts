@@ -12,6 +12,7 @@ import * as methods from "./20261202100000_methods";
 import * as integrity from "./20261202110000_integrity";
 import * as fitsState from "./20261202120000_fits_state";
 import * as rateLimits from "./20261202130000_rate_limits";
+import * as setupTokens from "./20261202140000_setup_tokens";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
@@ -25,4 +26,5 @@ export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<
   { name: "20261202110000_integrity", ...integrity },
   { name: "20261202120000_fits_state", ...fitsState },
   { name: "20261202130000_rate_limits", ...rateLimits },
+  { name: "20261202140000_setup_tokens", ...setupTokens },
 ];

@@ -5,6 +5,7 @@ import { spawn } from "node:child_process";
 import path from "node:path";
 import { openConfiguredDb } from "@/db";
 import { checkWritable } from "@/db/writable";
+import { issueFirstRunToken } from "@/lib/admin/setup";
 import { startMailSink } from "../mail/sink";
 
 async function main() {
@@ -22,8 +23,11 @@ async function main() {
   }
   // The database must take a write before the server says it is ready.
   const { db, where } = openConfiguredDb();
+  let firstRunToken: string | null = null;
   try {
     await checkWritable(db, where);
+    // A new install (no lab yet): a one-time token for the first-run page, printed here only.
+    if (!demo) firstRunToken = await issueFirstRunToken(db);
   } finally {
     await db.destroy();
   }
@@ -38,6 +42,8 @@ async function main() {
   const nextBin = path.resolve("node_modules", "next", "dist", "bin", "next");
   const child = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env });
   console.log(`Halflight on http://localhost:${port}`);
+  if (firstRunToken)
+    console.log(`\nThis database has no lab yet. Set it up (once, within 24 hours) at\n  ${env.NEXTAUTH_URL}/first-run?token=${firstRunToken}\nor with: npm run --silent cli -- setup --lab NAME --slug SLUG --admin-email EMAIL --admin-name NAME\n`);
   for (const sig of ["SIGINT", "SIGTERM"] as const) process.on(sig, () => child.kill(sig));
   child.on("exit", async (code) => {
     await closeSink?.();
