@@ -95,7 +95,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
           {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
         </div>
       )}
-      <div className="grid gap-6 xl:grid-cols-2">
+      <div className="grid gap-6 2xl:grid-cols-2">
         <section>
           <h2 className="mb-2 text-lg font-semibold">Parameters</h2>
           <Table caption="Fitted parameters per model">

@@ -63,6 +63,9 @@ export async function setup(project: TestProject): Promise<void> {
       env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1" },
     });
     if (b.status !== 0) throw new Error("next build failed");
+    // The start script npm start runs (dist/serve.mjs), for the tests that start the server as an installation does.
+    const sv = spawnSync("npm", ["run", "--silent", "build:server"], { stdio: "inherit" });
+    if (sv.status !== 0) throw new Error("npm run build:server failed");
   }
   // One audit key for the seeding here and the server: rows written now must verify there.
   process.env.AUDIT_KEY ??= randomBytes(32).toString("base64url");

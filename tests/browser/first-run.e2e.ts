@@ -1,0 +1,95 @@
+// A new install, started as a lab would start it (npm start's script, production variables, an empty database): the
+// console prints a one-time set-up address; the first-run page refuses without that token and creates the lab and its
+// administrator with it, who then sees an empty lab.
+import { spawn, type ChildProcess } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import fs from "node:fs";
+import net from "node:net";
+import os from "node:os";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { Page } from "playwright-core";
+import { openBrowser } from "./chromium";
+
+const artifacts = inject("artifacts");
+let server: ChildProcess;
+let out = "";
+let base = "";
+let page: Page;
+const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-first-run-"));
+
+function freePort(): Promise<number> {
+  return new Promise((resolve) => {
+    const s = net.createServer();
+    s.listen(0, "127.0.0.1", () => {
+      const port = (s.address() as net.AddressInfo).port;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+beforeAll(async () => {
+  const port = await freePort();
+  base = `http://127.0.0.1:${port}`;
+  server = spawn(process.execPath, ["dist/serve.mjs"], {
+    env: {
+      PATH: process.env.PATH!,
+      HOME: dir,
+      PORT: String(port),
+      NEXTAUTH_URL: base,
+      NEXTAUTH_SECRET: randomBytes(32).toString("base64url"),
+      AUDIT_KEY: randomBytes(32).toString("base64url"),
+      MAIL_TRANSPORT: "log",
+      DATABASE_FILE: path.join(dir, "lab.sqlite"),
+    } as unknown as NodeJS.ProcessEnv,
+  });
+  server.stdout!.on("data", (b: Buffer) => (out += b.toString()));
+  server.stderr!.on("data", (b: Buffer) => (out += b.toString()));
+  const until = Date.now() + 60_000;
+  while (!/Ready in/.test(out) && Date.now() < until) await new Promise((r) => setTimeout(r, 200));
+});
+afterAll(async () => {
+  server?.kill("SIGTERM");
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+describe("first run of a new install", () => {
+  it("prints a one-time address; the page refuses a wrong token and creates the lab with the right one", async () => {
+    const printed = out.match(/\/first-run\?token=([A-Za-z0-9_-]+)/);
+    expect(printed, out).not.toBeNull();
+    const b = await openBrowser();
+    page = await b.context.newPage();
+    try {
+      await page.goto(`${base}/first-run`);
+      await page.getByLabel("Set-up token (printed on the server's console)").fill("not-the-token-printed");
+      await page.getByLabel("Lab name").fill("Harbour Assay Lab");
+      await page.getByLabel("Short name for addresses (lower case, digits, dashes)").fill("harbour");
+      await page.getByLabel("Your name").fill("T. Wren");
+      await page.getByLabel("Your e-mail").fill("lead@harbour.example");
+      await page.getByLabel("Password", { exact: true }).fill("a long private passphrase");
+      await page.getByLabel("The same password again").fill("a long private passphrase");
+      await page.getByRole("button", { name: "Create the lab and sign in" }).click();
+      await expect.poll(() => page.getByTestId("first-run-error").textContent()).toMatch(/set-up token is not right/);
+      await page.screenshot({ path: path.join(artifacts, "first-run-refused.png"), fullPage: true });
+
+      await page.goto(`${base}/first-run?token=${printed![1]}`);
+      await page.getByLabel("Lab name").fill("Harbour Assay Lab");
+      await page.getByLabel("Short name for addresses (lower case, digits, dashes)").fill("harbour");
+      await page.getByLabel("Your name").fill("T. Wren");
+      await page.getByLabel("Your e-mail").fill("lead@harbour.example");
+      await page.getByLabel("Password", { exact: true }).fill("a long private passphrase");
+      await page.getByLabel("The same password again").fill("a long private passphrase");
+      await page.getByRole("button", { name: "Create the lab and sign in" }).click();
+      await page.waitForURL(/\/admin\/members$/);
+      await expect.poll(() => page.locator("body").textContent()).toMatch(/lead@harbour\.example/);
+      // An empty lab: no demo data.
+      await page.goto(`${base}/runs`);
+      await expect.poll(() => page.locator("main").textContent()).not.toMatch(/corvane/);
+      await page.screenshot({ path: path.join(artifacts, "first-run-empty-lab.png"), fullPage: true });
+      // Once a lab exists the page is gone.
+      expect((await page.request.get(`${base}/first-run`)).status()).toBe(404);
+    } finally {
+      await b.close();
+    }
+  });
+});
