@@ -230,3 +230,31 @@ describe("cli setup (spawned): a real lab and its first administrator", () => {
     }
   });
 });
+
+describe.skipIf(Boolean(process.env.DATABASE_URL))("npm run db:backup (SQLite's online backup API)", () => {
+  it("copies a live database to a new file that passes SQLite's integrity check, and refuses to overwrite", async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-backup-"));
+    try {
+      const { openDb } = await import("@/db");
+      const { migrateToLatest } = await import("@/db/migrate");
+      const { seedDemoWhenEmpty } = await import("@/db/seeds/demo");
+      const live = openDb(path.join(dir, "lab.sqlite"));
+      await migrateToLatest(live);
+      await seedDemoWhenEmpty(live);
+      const env = { ...process.env, DATABASE_FILE: path.join(dir, "lab.sqlite"), DATABASE_URL: "" };
+      // The server's connection stays open while the copy is made.
+      const r = spawnSync("npm", ["run", "--silent", "db:backup", "--", path.join(dir, "copy.sqlite")], { encoding: "utf8", env });
+      expect(r.status, r.stderr).toBe(0);
+      expect(r.stdout).toMatch(/integrity check ok; \d+ audit events/);
+      const copy = openDb(path.join(dir, "copy.sqlite"));
+      expect(Number((await copy("users").count({ n: "*" }))[0]!.n)).toBe(Number((await live("users").count({ n: "*" }))[0]!.n));
+      await copy.destroy();
+      await live.destroy();
+      const again = spawnSync("npm", ["run", "--silent", "db:backup", "--", path.join(dir, "copy.sqlite")], { encoding: "utf8", env });
+      expect(again.status).not.toBe(0);
+      expect(again.stderr).toMatch(/exists already/);
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
