@@ -7,6 +7,7 @@ export default defineConfig({
   test: {
     include: ["tests/unit/**/*.test.ts", "lib/**/*.test.ts", "parsers/**/*.test.ts", "db/**/*.test.ts"],
     environment: "node",
+    globalSetup: ["tests/setup/jobs-worker.ts"],
     pool: "forks",
     testTimeout: 60_000,
     reporters: ["default"],

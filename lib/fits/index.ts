@@ -9,7 +9,8 @@ import { AppError } from "@/lib/errors";
 import { claimNextVersion, writeVersion } from "@/lib/records";
 import { can } from "@/lib/permissions";
 import { getRun } from "@/db/queries/runs";
-import { ENGINE_VERSION, PRIMARY_MODEL, fitUnits, parameterUnit, evaluateCriteria, type UnitContext, fitSeriesWithOptions, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
+import { ENGINE_VERSION, PRIMARY_MODEL, fitUnits, parameterUnit, evaluateCriteria, type UnitContext, type CriteriaEvaluation, type SeriesFitOutcome } from "@/lib/kinetics";
+import { runJob } from "@/lib/jobs/pool";
 import { calibrationConversion, getCalibration, methodForRun } from "@/lib/methods";
 import { readSeries } from "@/lib/runs";
 import type { FitOptions, SaveFitInput } from "@/lib/schemas/fits";
@@ -59,7 +60,8 @@ export function primaryOf(results: StoredResults) {
 
 export async function computeFit(db: Knex, labId: number, runId: number, seriesId: number, options: FitOptions) {
   const { row, t, y } = await readSeries(db, labId, runId, seriesId);
-  const outcome = fitSeriesWithOptions(t, y, options);
+  // The fit is CPU work: it runs on a worker thread, with the pool's time limit.
+  const outcome = await runJob("fit-series", { t, y, options });
   const dataSha = seriesDataSha(row.t_f64, row.y_f64);
   return { row, t, y, outcome, dataSha };
 }

@@ -9,7 +9,8 @@ import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
 import { PARSE_LIMITS } from "@/parsers/limits";
-import { parseExport, ParseError, rankParsers, type ParsedExport, type ParsedSeries } from "@/parsers";
+import { runJob } from "@/lib/jobs/pool";
+import { ParseError, type ParsedExport, type ParsedSeries } from "@/parsers";
 
 /** Limits stated on the upload page: the size here, the rest while the parsers read (parsers/limits.ts), again after. */
 export const INGEST_LIMITS = { maxBytes: 50 * 1024 * 1024, maxPoints: PARSE_LIMITS.maxPoints, maxChannels: PARSE_LIMITS.maxChannels } as const;
@@ -32,15 +33,17 @@ export function checkSize(fileName: string, size: number, maxBytes: number = ING
  * Parses and checks an export; refused input becomes a 422 naming the file and the line. Its size has been checked
  * against the lab's limit (never above the server's) by the caller, before any other work.
  */
-function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): ParsedExport {
-  const parsed = parseExport(bytes, fileName, mapping.parser, { timeColumn: mapping.timeColumn });
-  if (parsed instanceof ParseError) throw refuse(fileName, parsed);
+async function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<ParsedExport & { ranking: Array<{ name: string; confidence: number }> }> {
+  // Parsing is CPU work: it runs on a worker thread, with the pool's time limit.
+  const r = await runJob("parse-export", { bytes, fileName, parser: mapping.parser, timeColumn: mapping.timeColumn });
+  if (r.error) throw refuse(fileName, new ParseError(r.error.message.replace(/^line \d+: /, ""), r.error.line));
+  const parsed = r.parsed!;
   if (parsed.series.length > INGEST_LIMITS.maxChannels)
     throw new AppError({ code: "unprocessable", message: `${fileName} has ${parsed.series.length} channels; the limit is ${INGEST_LIMITS.maxChannels}.` });
   const points = parsed.series.reduce((s, x) => s + x.t.length, 0);
   if (points > INGEST_LIMITS.maxPoints)
     throw new AppError({ code: "unprocessable", message: `${fileName} has ${points.toLocaleString("en")} readings; the limit is ${INGEST_LIMITS.maxPoints.toLocaleString("en")}.` });
-  return parsed;
+  return { ...parsed, ranking: r.ranking };
 }
 
 /** The lab's upload limit (lab settings), never above the server's own. */
@@ -61,7 +64,7 @@ export async function findExistingRun(db: Knex | Knex.Transaction, labId: number
 /** What the upload page shows before anything is stored. */
 export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<UploadPreview> {
   checkSize(fileName, bytes.length, await uploadLimitBytes(db, labId));
-  const parsed = readExport(bytes, fileName, mapping);
+  const parsed = await readExport(bytes, fileName, mapping);
   const sha256 = sha256Hex(bytes);
   const existing = await findExistingRun(db, labId, sha256);
   const text = new TextDecoder("utf-8", { fatal: false }).decode(bytes.subarray(0, 64 * 1024)).replace(/^\uFEFF/, "");
@@ -72,7 +75,7 @@ export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, 
     name: fileName,
     size: bytes.length,
     parser: parsed.parser,
-    parsers: rankParsers(bytes, fileName).map((r) => ({ name: r.parser.name, confidence: r.confidence })),
+    parsers: parsed.ranking,
     metadata: parsed.metadata,
     warnings: parsed.warnings,
     columns: parsed.columns ?? [],
@@ -176,7 +179,7 @@ export async function ingestExport(
     const series = await listSeriesOfRun(db, input.labId, existing.id);
     return { run_id: existing.id, raw_file_sha256: sha256, existing: true, series: series.map((s) => ({ id: s.id, name: s.name, points: s.point_count })) };
   }
-  const parsed = readExport(input.bytes, input.fileName, mapping);
+  const parsed = await readExport(input.bytes, input.fileName, mapping);
   const stored = applyMapping(parsed, mapping, input.fileName);
   const at = (input.now ?? new Date()).toISOString();
   const r = mapping.run ?? {};

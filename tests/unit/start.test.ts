@@ -62,7 +62,7 @@ describe("npm start without devDependencies", () => {
     expect(pkg.scripts.start).toBe("node dist/serve.mjs");
     expect(pkg.scripts.build).toMatch(/npm run build:server/);
     const { build } = await import("esbuild");
-    const r = await build({ entryPoints: ["lib/cli/serve.ts"], bundle: true, platform: "node", format: "esm", packages: "external", write: false, metafile: true, logLevel: "silent" });
+    const r = await build({ entryPoints: ["lib/cli/serve.ts", "lib/jobs/worker.ts"], bundle: true, platform: "node", format: "esm", packages: "external", write: false, metafile: true, outdir: "dist", logLevel: "silent" });
     const imported = new Set<string>();
     for (const input of Object.values(r.metafile.inputs)) for (const i of input.imports) if (i.external) imported.add(i.path);
     const { builtinModules } = await import("node:module");

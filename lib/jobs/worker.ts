@@ -1,0 +1,13 @@
+// A worker thread of the job pool: runs one job at a time and answers with its output or its error.
+import { parentPort } from "node:worker_threads";
+import { WORK, type JobKind } from "./work";
+
+parentPort!.on("message", (m: { id: number; kind: JobKind; input: never }) => {
+  try {
+    const output = WORK[m.kind](m.input);
+    parentPort!.postMessage({ id: m.id, ok: true, output });
+  } catch (e) {
+    const err = e as Error & { code?: string; line?: number };
+    parentPort!.postMessage({ id: m.id, ok: false, error: { name: err.name, message: err.message, code: err.code, line: err.line } });
+  }
+});
