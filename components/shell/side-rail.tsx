@@ -10,7 +10,7 @@ export function SideRail({
   lab,
   person,
 }: {
-  areas: Array<{ href: string; label: string }>;
+  areas: Array<{ href: string; label: string; count?: number }>;
   lab: string;
   person: { name: string; role: string; email: string };
 }) {
@@ -44,6 +44,11 @@ export function SideRail({
                   )}
                 >
                   {a.label}
+                  {a.count !== undefined && (
+                    <span className="ml-2 inline-flex min-w-6 justify-center rounded-full bg-quartz-700 px-1.5 text-xs font-semibold text-white" data-testid={`count-${a.href.slice(1)}`} aria-label={`${a.count} waiting for you`}>
+                      {a.count}
+                    </span>
+                  )}
                 </Link>
               </li>
             );

@@ -164,6 +164,11 @@ export async function listComments(db: Knex, labId: number, fitId: number) {
   return rows.map((c) => ({ id: c.id, parent_id: c.parent_id, author: c.author_name as string, body: c.body, created_at: c.created_at }));
 }
 
+/** How many submitted records wait for this user's decision (not their own), for the navigation's count. */
+export async function waitingForMe(db: Knex, user: Pick<SignedInUser, "labId" | "userId">): Promise<number> {
+  return (await submittedFits(db, user.labId)).filter((r) => r.author_id !== user.userId).length;
+}
+
 export async function reviewQueue(db: Knex, labId: number, now = new Date()) {
   return (await submittedFits(db, labId)).map((r) => ({ ...r, age_hours: (now.getTime() - Date.parse(r.submitted_at)) / 3.6e6 }));
 }

@@ -40,6 +40,15 @@ describe("review and sign-off", () => {
     const fitUrl = a.url();
     const fitId = fitUrl.split("/").pop()!;
 
+    // The reviewer's home is the review desk: the front door leads to the queue, with its count in the navigation.
+    await r.goto(`${baseURL}/`);
+    await r.waitForURL(/\/reviews$/);
+    const waiting = Number(await r.getByTestId("count-reviews").textContent());
+    expect(waiting).toBeGreaterThanOrEqual(1);
+    expect(await r.locator("#main tbody tr").count()).toBeGreaterThanOrEqual(waiting);
+    await r.getByRole("link", { name: /corvane-blue-30C · Cell 1/ }).waitFor();
+    await r.screenshot({ path: path.join(artifacts, "review-desk.png"), fullPage: true });
+
     // The reviewer's e-mail arrives in the local sink with a link pinned to this version.
     const mailDir = inject("mailDir");
     const findMail = async () => {
