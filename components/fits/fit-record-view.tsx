@@ -14,6 +14,7 @@ import { AppError } from "@/lib/errors";
 import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { verifyFitVersion, type RecordIntegrity } from "@/lib/integrity";
+import { runWavelengthMismatch } from "@/lib/methods";
 import { can } from "@/lib/permissions";
 
 
@@ -35,6 +36,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
   const k = rec.primary.k;
   const units = recordUnits(rec.results, rec.options);
   const integrity = await verifyFitVersion(db, labId, rec.id);
+  const mismatch = await runWavelengthMismatch(db, labId, rec.run.id);
   return (
     <>
       <PageHeader
@@ -63,6 +65,11 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
       />
       {banner}
       <IntegrityNote integrity={integrity} />
+      {mismatch && (
+        <p className="mb-4 rounded-cell bg-caution-100 px-4 py-2 text-sm text-caution-700" data-testid="wavelength-caution">
+          Wavelength mismatch: the run&apos;s method ({mismatch.method}) is for {mismatch.method_nm} nm, but this run was measured at {mismatch.run_nm} nm. Its conversion and criteria may not hold; the reason given at assignment is in the audit trail.
+        </p>
+      )}
       {newest.id !== rec.id && (
         <p className="mb-4 rounded-cell bg-caution-100 px-4 py-2 text-sm text-caution-700">
           This is not the newest version. <Link className="font-semibold underline" href={`/fits/${newest.id}`}>Open version {newest.version}</Link>.

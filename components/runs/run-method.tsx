@@ -8,16 +8,32 @@ import { Dialog } from "@/components/ui/dialog";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 
-export function RunMethod({ runId, current, choices, canAssign }: { runId: number; current: { record_id: number; name: string } | null; choices: Array<{ record_id: number; name: string; version: number }>; canAssign: boolean }) {
+export function RunMethod({
+  runId,
+  runWavelength,
+  current,
+  choices,
+  canAssign,
+}: {
+  runId: number;
+  runWavelength: number | null;
+  current: { record_id: number; name: string } | null;
+  choices: Array<{ record_id: number; name: string; version: number; wavelength_nm: number | null }>;
+  canAssign: boolean;
+}) {
   const router = useRouter();
   const toast = useToast();
   const [open, setOpen] = useState(false);
   const [choice, setChoice] = useState(String(current?.record_id ?? choices[0]?.record_id ?? ""));
   const [reason, setReason] = useState("");
+  const [wavelengthReason, setWavelengthReason] = useState("");
   const [busy, setBusy] = useState(false);
+  const chosen = choices.find((c) => String(c.record_id) === choice);
+  // The same rule as the server's (more than 1 nm apart): the dialog asks for the reason before the server must.
+  const mismatch = chosen && chosen.wavelength_nm !== null && runWavelength !== null && Math.abs(chosen.wavelength_nm - runWavelength) > 1 ? chosen.wavelength_nm : null;
   async function assign() {
     setBusy(true);
-    const res = await fetch(`/api/runs/${runId}/method`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ methodId: choice ? Number(choice) : null, reason }) });
+    const res = await fetch(`/api/runs/${runId}/method`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ methodId: choice ? Number(choice) : null, reason, ...(mismatch !== null ? { wavelengthReason } : {}) }) });
     const body = await res.json();
     setBusy(false);
     if (!res.ok) {
@@ -53,12 +69,20 @@ export function RunMethod({ runId, current, choices, canAssign }: { runId: numbe
         >
           <Select label="Method" value={choice} onChange={(e) => setChoice(e.target.value)} options={[{ value: "", label: "No method" }, ...choices.map((c) => ({ value: String(c.record_id), label: `${c.name} (v${c.version})` }))]} />
           <Input label="Reason (required)" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={3} />
+          {mismatch !== null && (
+            <div className="rounded-cell bg-caution-100 px-3 py-2 text-sm text-caution-700" data-testid="wavelength-mismatch">
+              <p>
+                This method is for {mismatch} nm; the run was measured at {runWavelength} nm. Its absorptivity or calibration and its criteria may not hold here.
+              </p>
+              <Input label="Why the method applies at this wavelength (required)" value={wavelengthReason} onChange={(e) => setWavelengthReason(e.target.value)} required minLength={3} />
+            </div>
+          )}
           <p className="text-sm text-ink-500">Fits saved from now on are judged by the method&apos;s newest version; saved fits keep their verdict.</p>
           <div className="flex justify-end gap-2">
             <Button variant="secondary" onClick={() => setOpen(false)}>
               Cancel
             </Button>
-            <Button type="submit" disabled={busy || reason.trim().length < 3}>
+            <Button type="submit" disabled={busy || reason.trim().length < 3 || (mismatch !== null && wavelengthReason.trim().length < 3)}>
               Save
             </Button>
           </div>

@@ -88,9 +88,10 @@ export async function listLatestMethodRows(db: Db, labId: number, q: PageQuery) 
 }
 
 /** Every method record's newest version, for pickers (name and id only). */
-export async function methodChoices(db: Db, labId: number): Promise<Array<{ record_id: number; name: string; version: number }>> {
+export async function methodChoices(db: Db, labId: number): Promise<Array<{ record_id: number; name: string; version: number; wavelength_nm: number | null }>> {
   const latest = db("methods").where("lab_id", labId).groupBy("record_id").max({ id: "id" });
-  return db("methods").whereIn("id", latest).orderBy("name").select("record_id", "name", "version") as unknown as Promise<Array<{ record_id: number; name: string; version: number }>>;
+  const rows: Array<{ id: number; record_id: number; name: string; version: number; definition: string }> = await db("methods").whereIn("id", latest).orderBy("name").select("id", "record_id", "name", "version", "definition");
+  return rows.map((r) => ({ record_id: r.record_id, name: r.name, version: r.version, wavelength_nm: readJson(methodDefinitionSchema, r.definition, `definition of method ${r.id}`).wavelength_nm }));
 }
 
 export async function setRunMethod(db: Db, labId: number, runId: number, methodRecordId: number | null, methodName: string | null): Promise<number> {

@@ -300,11 +300,35 @@ export async function listMethods(db: Knex, labId: number, q: ListQueryInput) {
 export { methodChoices };
 
 /** Assigns (or clears) a run's method; audited with the reason. Fits saved before keep their own evaluation. */
-export async function assignRunMethod(db: Knex, user: SignedInUser, runId: number, methodRecordId: number | null, reason: string) {
+/** Wavelengths further apart than this are a mismatch (a method validated at one wavelength applied at another). */
+export const WAVELENGTH_TOLERANCE_NM = 1;
+
+export function wavelengthMismatch(methodNm: number | null | undefined, runNm: number | null | undefined): { method_nm: number; run_nm: number } | null {
+  if (methodNm === null || methodNm === undefined || runNm === null || runNm === undefined) return null;
+  return Math.abs(methodNm - runNm) > WAVELENGTH_TOLERANCE_NM ? { method_nm: methodNm, run_nm: runNm } : null;
+}
+
+/** The run's method against the run's wavelength, for the caution on every fit of the run. */
+export async function runWavelengthMismatch(db: Knex, labId: number, runId: number): Promise<{ method: string; method_nm: number; run_nm: number } | null> {
+  const run = await getRun(db, labId, runId);
+  if (!run?.method_record_id) return null;
+  const m = await newestMethodVersion(db, labId, run.method_record_id);
+  const mm = wavelengthMismatch(m?.definition.wavelength_nm, run.wavelength_nm);
+  return mm && m ? { method: m.name, ...mm } : null;
+}
+
+export async function assignRunMethod(db: Knex, user: SignedInUser, runId: number, methodRecordId: number | null, reason: string, wavelengthReason?: string) {
   const run = await getRun(db, user.labId, runId);
   if (!run) throw new AppError({ code: "not_found", message: `There is no run ${runId} in this lab.` });
   const method = methodRecordId ? await newestMethodVersion(db, user.labId, methodRecordId) : null;
   if (methodRecordId && !method) throw new AppError({ code: "unprocessable", message: `There is no method ${methodRecordId} in this lab.` });
+  const mismatch = wavelengthMismatch(method?.definition.wavelength_nm, run.wavelength_nm);
+  if (mismatch && !wavelengthReason)
+    throw new AppError({
+      code: "unprocessable",
+      message: `${method!.name} is a method for ${mismatch.method_nm} nm; this run was measured at ${mismatch.run_nm} nm. Its absorptivity or calibration and its criteria may not hold here: say why the method applies anyway, or choose another.`,
+      issues: [{ path: "wavelengthReason", message: "Required when the wavelengths differ." }],
+    });
   return db.transaction(async (trx) => {
     await setRunMethod(trx, user.labId, runId, method ? method.record_id : null, method ? method.name : null);
     await recordAudit(trx, {
@@ -314,7 +338,7 @@ export async function assignRunMethod(db: Knex, user: SignedInUser, runId: numbe
       objectType: "run",
       objectId: runId,
       oldValues: { method_record_id: run.method_record_id, method: run.method },
-      newValues: { method_record_id: method?.record_id ?? null, method: method?.name ?? null, method_version: method?.version ?? null },
+      newValues: { method_record_id: method?.record_id ?? null, method: method?.name ?? null, method_version: method?.version ?? null, ...(mismatch ? { wavelength_mismatch: { ...mismatch, reason: wavelengthReason } } : {}) },
       reason,
     });
     return { ok: true as const, method: method ? { record_id: method.record_id, name: method.name, version: method.version } : null };

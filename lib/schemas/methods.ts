@@ -95,7 +95,12 @@ export const listQuerySchema = z.object({
 });
 export type ListQueryInput = z.infer<typeof listQuerySchema>;
 
-export const assignMethodSchema = z.strictObject({ methodId: z.number().int().positive().nullable(), reason });
+export const assignMethodSchema = z.strictObject({
+  methodId: z.number().int().positive().nullable(),
+  reason,
+  /** Required when the method's wavelength differs from the run's: why the method applies anyway. */
+  wavelengthReason: z.string().trim().min(3, "Say why the method applies at a different wavelength (at least 3 characters).").max(1000).optional(),
+});
 
 /** What the fitting page needs of a run's method (its newest version). */
 export interface MethodForRun {

@@ -8,7 +8,8 @@ import { seedDemoWhenEmpty } from "@/db/seeds/demo";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { getFitRecord, saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
-import { assignRunMethod, calibrationConversion, checkCustomModel, createCalibration, createMethod, getCalibration, getMethod, listMethods, newMethodVersion } from "@/lib/methods";
+import { AppError } from "@/lib/errors";
+import { assignRunMethod, runWavelengthMismatch, calibrationConversion, checkCustomModel, createCalibration, createMethod, getCalibration, getMethod, listMethods, newMethodVersion } from "@/lib/methods";
 import { createCalibrationSchema, methodDefinitionSchema } from "@/lib/schemas/methods";
 import { freshDb, signInAs } from "./../helpers/db";
 
@@ -124,6 +125,23 @@ describe("methods", () => {
     expect(JSON.parse(ev!.old_values!)).toMatchObject({ method_record_id: null });
     expect(JSON.parse(ev!.new_values!)).toMatchObject({ method_record_id: methodId, method_version: 2 });
     await expect(assignRunMethod(db, analyst, runId, 9999, "no such method")).rejects.toMatchObject({ code: "unprocessable" });
+  });
+
+  it("a method for another wavelength is refused without a stated reason, then assigned with one; every fit of the run shows the mismatch", async () => {
+    const other = await createMethod(db, dev, methodDefinitionSchema.parse({ name: "Nitrophenolate release, 405 nm", analyte: "4-nitrophenolate", wavelength_nm: 405 }));
+    const before = await db("audit_events").where({ action: "run.method_assigned" }).count({ n: "*" });
+    const refused = await assignRunMethod(db, analyst, runId, other.id, "wrong pick on purpose").then(() => null, (e: AppError) => e);
+    expect(refused?.code).toBe("unprocessable");
+    expect(refused?.message).toMatch(/Nitrophenolate release, 405 nm is a method for 405 nm; this run was measured at 590 nm/);
+    expect(refused?.issues?.[0]?.path).toBe("wavelengthReason");
+    expect(await db("audit_events").where({ action: "run.method_assigned" }).count({ n: "*" })).toEqual(before);
+    expect((await db("runs").where({ id: runId }).first())!.method_record_id).toBe(methodId);
+    await assignRunMethod(db, analyst, runId, other.id, "checking the cross-over", "isosbestic point check, agreed with QA");
+    const ev = await db("audit_events").where({ action: "run.method_assigned" }).orderBy("id", "desc").first();
+    expect(JSON.parse(ev!.new_values!).wavelength_mismatch).toEqual({ method_nm: 405, run_nm: 590, reason: "isosbestic point check, agreed with QA" });
+    expect(await runWavelengthMismatch(db, analyst.labId, runId)).toEqual({ method: "Nitrophenolate release, 405 nm", method_nm: 405, run_nm: 590 });
+    await assignRunMethod(db, analyst, runId, methodId, "back to the 590 nm method");
+    expect(await runWavelengthMismatch(db, analyst.labId, runId)).toBeNull();
   });
 
   it("a calibration conversion must carry the stored numbers; a k of zero order then carries the slope's SE", async () => {

@@ -110,7 +110,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
             ))}
             <dt className="text-ink-500">Method</dt>
             <dd>
-              <RunMethod runId={run.id} current={run.method_record_id ? { record_id: run.method_record_id, name: run.method ?? "method" } : null} choices={can(user, "run:upload") ? await methodChoices(db, user.labId) : []} canAssign={can(user, "run:upload")} />
+              <RunMethod runId={run.id} runWavelength={run.wavelength_nm} current={run.method_record_id ? { record_id: run.method_record_id, name: run.method ?? "method" } : null} choices={can(user, "run:upload") ? await methodChoices(db, user.labId) : []} canAssign={can(user, "run:upload")} />
               {!run.method_record_id && run.method && <span className="block text-xs text-ink-500">The file names “{run.method}”, which is not one of the lab&apos;s methods.</span>}
             </dd>
             <dt className="text-ink-500">Original file</dt>
