@@ -16,6 +16,8 @@ import type { StudyRecord } from "@/lib/studies";
 
 type TempResults = {
   n: number;
+  /** Distinct temperatures (replicates at one temperature count once); absent in studies saved before it was stored. */
+  temperatures?: number;
   method: string;
   weighted: boolean;
   ea: { value: number; se: number | null; ci95?: [number, number] | null };
@@ -104,7 +106,7 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
         <div>
           <h1 className="text-2xl font-semibold tracking-tight">{study.name}</h1>
           <p className="text-sm text-ink-500">
-            Version {study.version} of {study.versions.length} · {r.n} temperatures · weighting {r.weighting} · {study.engine_version}
+            Version {study.version} of {study.versions.length} · {r.n} rate constants at {r.temperatures ?? r.n} temperatures · weighting {r.weighting} · {study.engine_version}
           </p>
           {demoNote && <p className="mt-1 text-sm text-ink-500">Demo lab: these invented runs were generated with Ea = 82 kJ mol⁻¹, so the study shows the method recovering a known value.</p>}
         </div>

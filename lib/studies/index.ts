@@ -82,7 +82,18 @@ export function computeStudy(kind: "temperature" | "excess", members: ResolvedMe
   try {
     const a = arrhenius(points);
     const sorted = [...points].sort((x, y) => x.temperatureK - y.temperatureK);
-    const q10s = sorted.slice(1).map((p, i) => ({ from_c: sorted[i]!.temperatureK - KELVIN_OFFSET, to_c: p.temperatureK - KELVIN_OFFSET, q10: q10(sorted[i]!, p) }));
+    // Q10 between neighbouring distinct temperatures: replicate runs at one temperature are one level (the geometric
+    // mean of their k), never a "Q10" between a temperature and itself.
+    const levels: RatePoint[] = [];
+    for (const p of sorted) {
+      const last = levels.at(-1) as (RatePoint & { lnSum: number; count: number }) | undefined;
+      if (last && Math.abs(p.temperatureK - last.temperatureK) < 0.005) {
+        last.lnSum += Math.log(p.k);
+        last.count += 1;
+        last.k = Math.exp(last.lnSum / last.count);
+      } else levels.push({ temperatureK: p.temperatureK, k: p.k, se: null, lnSum: Math.log(p.k), count: 1 } as RatePoint & { lnSum: number; count: number });
+    }
+    const q10s = levels.slice(1).map((p, i) => ({ from_c: levels[i]!.temperatureK - KELVIN_OFFSET, to_c: p.temperatureK - KELVIN_OFFSET, q10: q10(levels[i]!, p) }));
     let band: ReturnType<typeof arrheniusBand> = [];
     let residuals: Array<{ temperature_c: number; residual: number }> = [];
     if (points.length >= 3) {
@@ -112,7 +123,7 @@ export function computeStudy(kind: "temperature" | "excess", members: ResolvedMe
         caution: PREDICTION_CAUTION,
       };
     }
-    return { kind, ...a, q10: q10s, band, residuals, prediction, weighting: a.weighted ? "by (k / SE(k))²" : "none" };
+    return { kind, ...a, temperatures: levels.length, q10: q10s, band, residuals, prediction, weighting: a.weighted ? "by (k / SE(k))²" : "none" };
   } catch (e) {
     if (e instanceof TemperatureDataError) throw new AppError({ code: "unprocessable", message: e.message });
     throw e;

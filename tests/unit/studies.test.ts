@@ -27,6 +27,17 @@ beforeAll(async () => {
 afterAll(() => db.destroy());
 
 describe("temperature study", () => {
+  it("replicate runs at one temperature: temperatures counted as distinct values, Q10 only between distinct temperatures", async () => {
+    // Every demo fit, the drifting 25 °C repeat included: five rate constants at four temperatures.
+    const all = (await db("fits").select("id")).map((r) => r.id as number);
+    const s = await createStudy(db, analyst, { name: "With a replicate", kind: "temperature", members: all.map((fitId) => ({ fitId })), options: { weighted: true } });
+    const r = (await getStudyRecord(db, analyst.labId, s.id)).results as { n: number; temperatures: number; q10: Array<{ from_c: number; to_c: number; q10: number }> };
+    expect(r.n).toBe(all.length);
+    expect(r.temperatures).toBe(new Set((await db("runs").select("temperature_c")).map((x) => x.temperature_c)).size);
+    expect(r.q10).toHaveLength(r.temperatures - 1);
+    for (const q of r.q10) expect(q.to_c).toBeGreaterThan(q.from_c);
+  });
+
   it("gives the same Ea, ln A and Eyring parameters as `cli arrhenius` on the same table, to the printed digits", async () => {
     const s = await createStudy(db, analyst, { name: "Corvane blue", kind: "temperature", members: fitIds.map((fitId) => ({ fitId })), options: { weighted: true } });
     const rec = await getStudyRecord(db, analyst.labId, s.id);
