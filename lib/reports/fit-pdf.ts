@@ -1,31 +1,25 @@
 // The PDF report of one fit record version (pdfkit): lab, run and file identity, the plot, parameters and diagnostics,
-// exclusions with reasons, versions, signature blocks and the record's audit events. It uses the PDF standard fonts:
-// pdfkit's font subsetter (fontkit) throws "Offset is outside the bounds of the DataView" on the app's woff2 files.
+// exclusions with reasons, versions, comments, signature blocks and the record's audit events, in the app's own
+// typefaces (lib/reports/pdf-fonts.ts) so units and symbols print as on screen.
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
 import { verifyFitVersion } from "@/lib/integrity";
 import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
-import { reviewStatus } from "@/lib/reviews";
+import { listComments, reviewStatus } from "@/lib/reviews";
 import { getRunDetail, readSeries } from "@/lib/runs";
 import { drawSceneOnPdf, fitPlotScene, plotAxisLabel, type PdfSurface } from "./fit-plot";
+import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
 
-/** The standard fonts cover Windows-1252 only: exponents become ^n and the few other signs are spelled out. */
-export function printable(s: string): string {
-  const sup: Record<string, string> = { "⁻": "-", "⁰": "0", "¹": "1", "²": "2", "³": "3", "⁴": "4", "⁵": "5", "⁶": "6", "⁷": "7", "⁸": "8", "⁹": "9" };
-  const words: Record<string, string> = { "−": "-", "∞": "inf", "λ": "lambda", "ε": "epsilon", "Δ": "d", "→": "->", "≥": ">=", "≤": "<=", "µ": "u" };
-  return s
-    .replace(/[⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+/g, (m) => `^${[...m].map((c) => sup[c]).join("")}`)
-    .replace(/[−∞λεΔ→≥≤]/g, (c) => words[c]!)
-    .replace(/[^\x00-\xff€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ]/g, "?");
-}
+export { printable } from "./pdf-fonts";
 
 export async function fitReportPdf(db: Knex, labId: number, labName: string, id: number): Promise<{ name: string; bytes: Buffer }> {
   const rec = await getFitRecord(db, labId, id);
   const run = await getRunDetail(db, labId, rec.run.id);
   const versions = await versionsOfRecord(db, labId, rec.record_id!);
   const review = await reviewStatus(db, labId, id);
+  const comments = await listComments(db, labId, id);
   const audit = await auditRowsOfObject(db, labId, "fit", String(rec.record_id));
   // The stored points and the stored results: nothing is fitted again to print a record.
   const { t, y } = await readSeries(db, labId, rec.run.id, rec.series.id);
@@ -34,8 +28,9 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   const chunks: Buffer[] = [];
   doc.on("data", (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  const font = (kind: "sans" | "bold" | "mono") => doc.font({ sans: "Helvetica", bold: "Helvetica-Bold", mono: "Courier" }[kind]);
-  const line = (text: string, size = 10, kind: "sans" | "bold" | "mono" = "sans") => font(kind).fontSize(size).text(printable(text));
+  registerPdfFonts(doc);
+  const font = (kind: PdfFont) => doc.font(kind);
+  const line = (text: string, size = 10, kind: PdfFont = "sans") => font(faceFor(kind, text)).fontSize(size).text(printable(text));
   const heading = (text: string) => {
     doc.moveDown(0.6);
     line(text, 12, "bold");
@@ -55,11 +50,12 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
 
   heading(`Rate constant (${rec.primary.model})`);
   const units = recordUnits(rec.results, rec.options);
-  line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} ${recordParameterUnit(rec.primary.model, "k", units)}`, 14, "mono");
+  line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} ${recordParameterUnit(rec.primary.model, "k", units)}`, 14, "bold");
 
   // The plot: the same scene as the record page (data, the fitted curve, residuals below), drawn as vectors.
   const scene = fitPlotScene({ t, y, options: rec.options, results: rec.results, model: rec.primary.model, yUnit: plotAxisLabel(rec.results.quantity, units.y) });
   const top = doc.y + 6;
+  font("sans");
   const used = drawSceneOnPdf(doc as unknown as PdfSurface, scene, 44, top, 500, printable);
   doc.fillColor("#1b2230");
   font("sans").fontSize(8).text(printable(`${scene.legend.points} (dots)${scene.legend.outside ? `; ${scene.legend.outside} (rings)` : ""}${scene.legend.line ? `; ${scene.legend.line} (line)` : ""}. Residuals = reading - curve.`), 48, top + used + 2);
@@ -70,14 +66,14 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   if (ev) {
     heading(`Method criteria: ${ev.results.length === 0 ? "none set" : ev.passed ? "all met" : `${ev.failed} of ${ev.results.length} NOT MET`}`);
     line(`Judged at save by ${ev.method.name} version ${ev.method.version} on the ${ev.model} fit.`, 9);
-    for (const r of ev.results) line(`${r.pass ? "PASS" : "FAIL"}   ${r.label}: ${r.observed ?? "not evaluable"}${r.note ? ` (${r.note})` : ""}`, 9, "mono");
+    for (const r of ev.results) line(`${r.pass ? "PASS" : "FAIL"}   ${r.label}: ${r.observed ?? "not evaluable"}${r.note ? ` (${r.note})` : ""}`, 9);
   }
 
   heading("Parameters and diagnostics");
   for (const m of rec.results.models) {
     line(`${m.model}: n ${m.result.n}, dof ${m.result.dof}, SSR ${formatNumber(m.result.ssr, 4)}, r² ${m.result.r2?.toFixed(5) ?? "—"}, AICc ${m.result.aicc?.toFixed(2) ?? "—"}, runs ${m.result.runs ?? "—"}, Durbin–Watson ${m.result.durbin_watson?.toFixed(2) ?? "—"}`, 9, "bold");
     for (const p of m.result.parameters)
-      line(`   ${p.name} = ${p.value === null ? (m.result.converged ? "not given" : "no fit") : `${formatWithUncertainty(p.value, p.se)} ${recordParameterUnit(m.model, p.name, units)}`.trimEnd()}${p.held_from ? ` (from ${p.held_from})` : p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}${p.se_with_calibration !== undefined ? `   SE with calibration ${formatNumber(p.se_with_calibration, 3)}` : ""}`, 9, "mono");
+      line(`   ${p.name} = ${p.value === null ? (m.result.converged ? "not given" : "no fit") : `${formatWithUncertainty(p.value, p.se)} ${recordParameterUnit(m.model, p.name, units)}`.trimEnd()}${p.held_from ? ` (from ${p.held_from})` : p.fixed ? " (fixed)" : p.ci95 ? `   95 % CI ${formatNumber(p.ci95[0], 5)} … ${formatNumber(p.ci95[1], 5)}` : ""}${p.se_with_calibration !== undefined ? `   SE with calibration ${formatNumber(p.se_with_calibration, 3)}` : ""}`, 9);
     if (!m.result.converged) line(`   ${m.result.message}`, 9);
     for (const w of m.result.warnings) line(`   ${w}`, 8);
   }
@@ -94,6 +90,10 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
 
   heading("Versions");
   for (const v of versions) line(`Version ${v.version}, ${v.created_at.replace("T", " ").slice(0, 16)} UTC, ${v.author ?? "—"}${v.reason ? `: ${v.reason}` : ""} (${v.changes.join("; ")})`, 9);
+
+  heading("Comments");
+  if (comments.length === 0) line("None.", 9);
+  for (const c of comments) line(`${c.created_at.replace("T", " ").slice(0, 16)} UTC · ${c.author}${c.parent_id ? " (reply)" : ""}: ${c.body}`, 9);
 
   heading("Signatures");
   if (review.signatures.length === 0) line("None.", 9);

@@ -1,7 +1,7 @@
 // The validation report as PDF: installation facts, reference-file hashes, every case, the signature.
 import PDFDocument from "pdfkit";
 import type { ValidationRecord } from "@/lib/validation/records";
-import { printable } from "./fit-pdf";
+import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
 
 export async function validationReportPdf(rec: ValidationRecord, labName: string): Promise<{ name: string; bytes: Buffer }> {
   const r = rec.report;
@@ -9,22 +9,23 @@ export async function validationReportPdf(rec: ValidationRecord, labName: string
   const chunks: Buffer[] = [];
   doc.on("data", (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  const t = (s: string, size = 9, font = "Helvetica") => doc.font(font).fontSize(size).text(printable(s));
-  t(`Halflight validation run ${rec.id}: ${r.all_passed ? "ALL CASES PASSED" : `${r.failed} CASE(S) FAILED`}`, 15, "Helvetica-Bold");
+  registerPdfFonts(doc);
+  const t = (s: string, size = 9, font: PdfFont = "sans") => doc.font(faceFor(font, s)).fontSize(size).text(printable(s));
+  t(`Halflight validation run ${rec.id}: ${r.all_passed ? "ALL CASES PASSED" : `${r.failed} CASE(S) FAILED`}`, 15, "bold");
   t(`${labName} · run ${r.started_at.replace("T", " ").slice(0, 19)} UTC by ${rec.run_by} · ${r.passed} passed, ${r.failed} failed in ${r.seconds.toFixed(1)} s`);
   t(`${r.engine_version} · Node ${r.node} · ${r.platform}`);
-  t(`Report content hash ${rec.content_hash}`, 8, "Courier");
+  t(`Report content hash ${rec.content_hash}`, 8, "mono");
   doc.moveDown(0.5);
-  t("Signatures", 11, "Helvetica-Bold");
+  t("Signatures", 11, "bold");
   if (!rec.signatures.length) t("Not signed yet.");
   for (const s of rec.signatures) t(`${s.printed_name} · ${s.meaning.toUpperCase()} · ${s.signed_at.replace("T", " ").slice(0, 19)} UTC · signed hash ${s.content_hash}${s.void ? " · VOID" : ""}`);
   doc.moveDown(0.5);
-  t("Reference files (SHA-256)", 11, "Helvetica-Bold");
-  for (const f of r.reference_files) t(`${f.sha256}  ${f.file}`, 7, "Courier");
+  t("Reference files (SHA-256)", 11, "bold");
+  for (const f of r.reference_files) t(`${f.sha256}  ${f.file}`, 7, "mono");
   doc.moveDown(0.5);
-  t("Cases", 11, "Helvetica-Bold");
+  t("Cases", 11, "bold");
   for (const c of r.cases)
-    t(`${c.pass ? "PASS" : "FAIL"}  ${c.id.padEnd(28)} ours ${c.ours === null ? "—" : c.ours.toPrecision(10)}  reference ${c.reference}  LRE ${c.lre === null ? "—" : c.lre.toFixed(1)}  (${c.threshold})`, 7, "Courier");
+    t(`${c.pass ? "PASS" : "FAIL"}  ${c.id.padEnd(28)} ours ${c.ours === null ? "—" : c.ours.toPrecision(10)}  reference ${c.reference}  LRE ${c.lre === null ? "—" : c.lre.toFixed(1)}  (${c.threshold})`, 7, "mono");
   doc.moveDown(0.5);
   t("Sources: " + [...new Set(r.cases.map((c) => c.source.replace(/, \w+ from start 2$/, "").replace(/, \w+$/, "")))].join("; "), 7);
   doc.end();

@@ -14,7 +14,7 @@ import { changeLabSettings } from "@/lib/admin/settings";
 import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { fitReportPdf } from "@/lib/reports/fit-pdf";
-import { decideFit, submitFit } from "@/lib/reviews";
+import { addComment, decideFit, submitFit } from "@/lib/reviews";
 import { openShareLink, openShareLinkOutside } from "@/lib/sharing";
 import { freshDb } from "./../helpers/db";
 import { testMailSink } from "./../helpers/mail";
@@ -145,6 +145,7 @@ describe("review mail and the PDF report", () => {
     const toReviewer = fresh.find((m) => m.includes("To: rafe.okonkwo@larkspur.example"))!;
     expect(toReviewer).toMatch(/Subject: Review requested: corvane-blue-30C/);
     expect(toReviewer).toMatch(/http:\/\/halflight\.test\/share\/[A-Za-z0-9_-]{32}/);
+    await addComment(db, as.reviewer!, 2, "Residuals random; Ωmega check at 25 °C ± 0.1 agrees.");
     await decideFit(db, as.reviewer!, 2, { decision: "approved", password: pw("reviewer") });
     expect((await decoded(before)).some((m) => m.includes("To: amara.quist@larkspur.example") && m.includes("Subject: Approved:"))).toBe(true);
 
@@ -162,5 +163,11 @@ describe("review mail and the PDF report", () => {
     expect(text.stdout).toContain("Method criteria: all met");
     expect(text.stdout).toMatch(/PASS\s+the fit converged: yes/);
     expect(text.stdout).toMatch(/PASS\s+at least 20 points fitted: 61/);
+    // Units and symbols as on screen (the app's own typeface embedded), the plot's axes, and the comment with its author.
+    expect(text.stdout).toMatch(/k = [\d.]+ ± [\d.]+ s⁻¹/);
+    expect(text.stdout).toMatch(/t \((s|min)\)/);
+    expect(text.stdout).toMatch(/residual/);
+    expect(text.stdout).toMatch(/Rafe Okonkwo: Residuals random; Ωmega check at 25 °C ± 0\.1 agrees\./);
+    expect(text.stdout).not.toMatch(/s\^-1/);
   });
 });
