@@ -102,8 +102,9 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
           {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
         </div>
       )}
+      {/* min-w-0: a grid item may shrink below its table's width, so a wide table scrolls in its own box at phone width. */}
       <div className="grid gap-6 2xl:grid-cols-2">
-        <section>
+        <section className="min-w-0">
           <h2 className="mb-2 text-lg font-semibold">Parameters</h2>
           <Table caption="Fitted parameters per model">
             <thead>
@@ -146,7 +147,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
             {!rec.options.window && !rec.options.exclusions?.length && !rec.options.fixed && <li>Every point, nothing fixed.</li>}
           </ul>
         </section>
-        <section>
+        <section className="min-w-0">
           <h2 className="mb-2 text-lg font-semibold">Versions</h2>
           <ol className="space-y-2" data-testid="versions">
             {versions.map((v) => (
@@ -161,7 +162,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
         </section>
       </div>
       {!outside && (
-      <section className="mt-8" aria-label="Audit events of this record">
+      <section className="mt-8 min-w-0 break-words" aria-label="Audit events of this record">
         <h2 className="mb-2 text-lg font-semibold">Audit events of this record</h2>
         <ol className="space-y-1 font-mono text-xs" data-testid="record-audit">
           {audit.map((e) => (

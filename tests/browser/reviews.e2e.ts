@@ -66,6 +66,11 @@ describe("review and sign-off", () => {
     await r.getByRole("heading", { name: /corvane-blue-30C · Cell 1/ }).waitFor();
     // The reviewer sees the curve they sign: the shared page carries the record's plot.
     await r.getByTestId("record-plot").locator("svg polyline").waitFor({ state: "attached" });
+    // At phone width (390 px) the e-mailed page has no horizontal scroll: wide tables scroll in their own box.
+    await r.setViewportSize({ width: 390, height: 844 });
+    await expect.poll(() => r.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(0);
+    await r.screenshot({ path: path.join(artifacts, "share-at-390px.png"), fullPage: true });
+    await r.setViewportSize({ width: 1280, height: 800 });
     await r.getByLabel("Add a comment").fill("Residuals look random; k agrees with the 25 and 40 °C runs.");
     await r.getByRole("button", { name: "Comment" }).click();
     await r.getByTestId("comments").getByText("Residuals look random").waitFor();
