@@ -30,8 +30,9 @@ const securityHeaders = [
 ];
 
 const nextConfig = {
-  // Knex resolves optional database drivers at run time; bundling it breaks the build.
-  serverExternalPackages: ["knex", "better-sqlite3", "pg"],
+  // Knex resolves optional database drivers at run time; bundling it breaks the build. pdfkit and fontkit read font
+  // files through Node's fs: bundled, fontkit resolves to its browser build (no openSync).
+  serverExternalPackages: ["knex", "better-sqlite3", "pg", "pdfkit", "fontkit"],
   // forbidden() gives protected pages a real 403 status.
   experimental: { authInterrupts: true },
   poweredByHeader: false,

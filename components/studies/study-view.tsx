@@ -12,7 +12,8 @@ import { formatNumber, formatSeconds, formatWithUncertainty, superscript } from 
 import { KELVIN_OFFSET } from "@/lib/kinetics/constants";
 import { halfLife, t90 } from "@/lib/kinetics/quantities";
 import { celsiusToKelvin, eyringLine, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
-import type { StudyRecord } from "@/lib/studies";
+import type { StudyGlobal, StudyRecord } from "@/lib/studies";
+import { GlobalFitSection } from "./global-fit";
 
 type TempResults = {
   n: number;
@@ -30,6 +31,7 @@ type TempResults = {
   residuals: Array<{ temperature_c: number; residual: number }>;
   warnings: string[];
   weighting: string;
+  global?: StudyGlobal;
 };
 
 const kj = (v: number | null | undefined) => (v == null ? null : v / 1000);
@@ -188,6 +190,7 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
           />
         </div>
       </section>
+      <GlobalFitSection g={r.global} twoStage={r.ea} />
       <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Prediction">
         <h2 className="mb-3 text-lg font-semibold">Prediction at a temperature</h2>
         <div className="flex flex-wrap items-end gap-4">

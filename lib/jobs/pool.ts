@@ -8,7 +8,7 @@ import os from "node:os";
 import path from "node:path";
 import { Worker } from "node:worker_threads";
 import { AppError } from "@/lib/errors";
-import { FitSpecError } from "@/lib/kinetics";
+import { FitSpecError, GlobalFitError } from "@/lib/kinetics";
 import { ParseError } from "@/parsers";
 import { WORK, type JobKind, type JobTypes } from "./work";
 
@@ -32,6 +32,7 @@ interface Slot {
 
 function revive(e: { name: string; message: string; code?: string; line?: number }): Error {
   if (e.name === "FitSpecError") return new FitSpecError(e.message);
+  if (e.name === "GlobalFitError") return new GlobalFitError(e.message);
   if (e.name === "ParseError") return Object.assign(new ParseError(e.message.replace(/^line \d+: /, ""), e.line), {});
   if (e.name === "AppError" && e.code) return new AppError({ code: e.code as never, message: e.message, line: e.line });
   return new Error(e.message);

@@ -1,10 +1,11 @@
 // The CPU-heavy work the server hands to its worker threads: what each job does, as plain functions (the worker calls
 // them; so does the in-process path the CLI uses). Inputs and outputs cross threads by structured clone.
-import { fitSeriesWithOptions, type SeriesFitOutcome, type SeriesFitOptions } from "@/lib/kinetics";
+import { fitGlobal, fitSeriesWithOptions, type GlobalFitResult, type GlobalForm, type GlobalRun, type SeriesFitOutcome, type SeriesFitOptions } from "@/lib/kinetics";
 import { parseExport, ParseError, rankParsers, type ParsedExport } from "@/parsers";
 
 export interface JobTypes {
   "fit-series": { input: { t: Float64Array; y: Float64Array; options: SeriesFitOptions }; output: SeriesFitOutcome };
+  "global-fit": { input: { model: string; runs: GlobalRun[]; form: GlobalForm }; output: GlobalFitResult };
   "parse-export": {
     input: { bytes: Uint8Array; fileName: string; parser?: string; timeColumn?: string };
     output: { parsed: ParsedExport | null; error: { message: string; line?: number } | null; ranking: Array<{ name: string; confidence: number }> };
@@ -12,8 +13,10 @@ export interface JobTypes {
 }
 export type JobKind = keyof JobTypes;
 
+
 export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"]) => JobTypes[K]["output"] } = {
   "fit-series": ({ t, y, options }) => fitSeriesWithOptions(t, y, options),
+  "global-fit": ({ model, runs, form }) => fitGlobal(model, runs, form),
   "parse-export": ({ bytes, fileName, parser, timeColumn }) => {
     const ranking = rankParsers(bytes, fileName).map((r) => ({ name: r.parser.name, confidence: r.confidence }));
     const r = parseExport(bytes, fileName, parser, { timeColumn });

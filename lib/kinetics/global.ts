@@ -65,7 +65,9 @@ export interface GlobalFitResult {
   warnings: string[];
 }
 
-export class GlobalFitError extends Error {}
+export class GlobalFitError extends Error {
+  override name = "GlobalFitError";
+}
 
 const RUNS_Z_WARNING = 3;
 /** A run whose mean squared residual is this many times the other runs' does not follow the shared law as they do. */

@@ -61,6 +61,23 @@ export interface SeriesFitOutcome {
   linearized_view: { t: Float64Array; ln: Float64Array; line: { t: [number, number]; ln: [number, number] } } | null;
 }
 
+/** The points a fit with these options uses: inside the window, not excluded, finite, converted as the options say. */
+export function includedPoints(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: Pick<SeriesFitOptions, "window" | "exclusions" | "conversion">): { t: Float64Array; y: Float64Array } {
+  const excluded = new Set((o.exclusions ?? []).map((e) => e.index));
+  const from = o.window?.from ?? -Infinity;
+  const to = o.window?.to ?? Infinity;
+  const t: number[] = [],
+    y: number[] = [];
+  for (let i = 0; i < tAll.length; i++) {
+    if (excluded.has(i) || tAll[i]! < from || tAll[i]! > to) continue;
+    const v = o.conversion ? convertReading(yAll[i]!, o.conversion) : yAll[i]!;
+    if (!Number.isFinite(v)) continue;
+    t.push(tAll[i]!);
+    y.push(v);
+  }
+  return { t: Float64Array.from(t), y: Float64Array.from(y) };
+}
+
 export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: SeriesFitOptions): SeriesFitOutcome {
   const n = tAll.length;
   const excluded = new Set((o.exclusions ?? []).map((e) => e.index));

@@ -21,8 +21,16 @@ import {
   secondOrderFromObserved,
   t90,
   TemperatureDataError,
+  GlobalFitError,
+  includedPoints,
+  PRIMARY_MODEL,
+  type GlobalFitResult,
+  type GlobalRun,
   type RatePoint,
 } from "@/lib/kinetics";
+import { getFit } from "@/db/queries/fits";
+import { runJob } from "@/lib/jobs/pool";
+import { readSeries } from "@/lib/runs";
 import type { ChangeStudy, CreateStudy, StudyMember } from "@/lib/schemas/studies";
 
 export const PREDICTION_CAUTION =
@@ -135,13 +143,81 @@ export function studyContentHash(c: { members: unknown; options: unknown; result
   return createHash("sha256").update(canonicalJson({ members: c.members, options: c.options, results: c.results, engine: c.engine })).digest("hex");
 }
 
+/** What a study keeps of the global fit: numbers and per-run diagnostics (no curves), and how it compares. */
+export interface StudyGlobal {
+  available: boolean;
+  reason?: string;
+  model?: string;
+  tref_c?: number;
+  ea?: { value: number | null; se: number | null; ci95: [number, number] | null };
+  kref?: { value: number | null; se: number | null };
+  correlation_ea_kref?: number | null;
+  n?: number;
+  dof?: number;
+  runs?: Array<{ fit_id: number; run_name: string; temperature_c: number | null; n: number; k: number | null; se_k: number | null; ssr_share: number | null; runs_z: number | null }>;
+  converged?: boolean;
+  message?: string;
+  warnings?: string[];
+  /** Two-stage Ea minus global Ea, over their combined SE: within 2 they agree within their uncertainties. */
+  agreement?: { difference: number; z: number | null; agree: boolean | null };
+}
+
+/**
+ * Every member's curve fitted at once (first order, Arrhenius form: Ea and kref shared, each run's a0 and A∞ its own),
+ * on the points each member fit used (its window, exclusions and conversion), on a worker thread.
+ */
+async function globalForStudy(db: Knex, labId: number, members: ResolvedMember[], twoStage: { value: number; se: number | null } | null): Promise<StudyGlobal> {
+  const runs: GlobalRun[] = [];
+  const ids: number[] = [];
+  for (const m of members) {
+    if (m.temperature_used_c === null) return { available: false, reason: `${m.run_name} has no temperature.` };
+    const f = await getFit(db, labId, m.fitId);
+    if (!f) return { available: false, reason: `Fit ${m.fitId} is missing.` };
+    const { t, y } = await readSeries(db, labId, f.run_id, f.series_id);
+    const pts = includedPoints(t, y, f.options);
+    runs.push({ label: m.run_name, t: pts.t, y: pts.y, temperatureK: celsiusToKelvin(m.temperature_used_c) });
+    ids.push(m.fitId);
+  }
+  let g: GlobalFitResult;
+  try {
+    g = await runJob("global-fit", { model: PRIMARY_MODEL, runs, form: { kind: "arrhenius" } });
+  } catch (e) {
+    if (e instanceof GlobalFitError || (e instanceof AppError && e.code === "unprocessable")) return { available: false, reason: e.message };
+    throw e;
+  }
+  const ea = g.parameters[0]!,
+    kref = g.parameters[1]!;
+  const combined = twoStage?.se !== null && twoStage?.se !== undefined && ea.se !== null ? Math.hypot(twoStage.se, ea.se) : null;
+  const difference = twoStage && ea.value !== null ? twoStage.value - ea.value : NaN;
+  return {
+    available: true,
+    model: g.model,
+    tref_c: g.tref_k! - KELVIN_OFFSET,
+    ea: { value: ea.value, se: ea.se, ci95: ea.ci95 },
+    kref: { value: kref.value, se: kref.se },
+    correlation_ea_kref: g.correlation ? g.correlation[0]![1]! : null,
+    n: g.n,
+    dof: g.dof,
+    runs: g.runs.map((r, i) => ({ fit_id: ids[i]!, run_name: r.label, temperature_c: r.temperature_k === null ? null : r.temperature_k - KELVIN_OFFSET, n: r.n, k: r.k.value, se_k: r.k.se, ssr_share: r.ssr_share, runs_z: r.runs_z })),
+    converged: g.converged,
+    message: g.message,
+    warnings: g.warnings,
+    agreement: Number.isFinite(difference) ? { difference, z: combined ? difference / combined : null, agree: combined ? Math.abs(difference / combined) <= 2 : null } : undefined,
+  };
+}
+
 async function storeVersion(
   db: Knex,
   user: SignedInUser,
   input: { name: string; kind: "temperature" | "excess"; members: StudyMember[]; options: { weighted: boolean; target_c?: number | null }; previous?: { id: number; record_id: number; version: number } | null; reason?: string | null },
 ) {
   const resolved = await resolveMembers(db, user.labId, input.members);
-  const results = computeStudy(input.kind, resolved, input.options);
+  const computed = computeStudy(input.kind, resolved, input.options);
+  // Beside the two-stage route, every curve fitted together (temperature studies over two or more temperatures).
+  const results =
+    computed.kind === "temperature" && "temperatures" in computed && computed.temperatures >= 2
+      ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.ea) }
+      : computed;
   const contentHash = studyContentHash({ members: resolved, options: input.options, results, engine: ENGINE_VERSION });
   return writeVersion(db, async (trx) => {
     const version = await claimNextVersion(trx, "studies", user.labId, input.previous ?? null);
@@ -198,7 +274,8 @@ export async function changeStudy(db: Knex, user: SignedInUser, id: number, chan
   });
 }
 
-export type StudyResults = ReturnType<typeof computeStudy>;
+/** A study version's results: the two-stage numbers, and for temperature studies all curves fitted together. */
+export type StudyResults = ReturnType<typeof computeStudy> & { global?: StudyGlobal };
 
 export async function getStudyRecord(db: Knex, labId: number, id: number) {
   const s = await getStudy(db, labId, id);

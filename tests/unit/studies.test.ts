@@ -10,7 +10,7 @@ import type { SignedInUser } from "@/lib/auth/sign-in";
 import { runCli } from "@/lib/cli/main";
 import { formatWithUncertainty } from "@/lib/format/number";
 import { fitLine } from "@/lib/kinetics";
-import { changeStudy, createStudy, getStudyRecord, studyCsv } from "@/lib/studies";
+import { changeStudy, createStudy, getStudyRecord, studyCsv, type StudyGlobal } from "@/lib/studies";
 import { freshDb, signInAs } from "./../helpers/db";
 
 let db: Knex;
@@ -27,6 +27,21 @@ beforeAll(async () => {
 afterAll(() => db.destroy());
 
 describe("temperature study", () => {
+  it("beside the two-stage result, all curves fitted together: Ea and kref with SEs, per-run k, and the two routes agree within their uncertainties", async () => {
+    const s = await createStudy(db, analyst, { name: "Global beside two-stage", kind: "temperature", members: fitIds.map((fitId) => ({ fitId })), options: { weighted: true } });
+    const r = (await getStudyRecord(db, analyst.labId, s.id)).results as { ea: { value: number; se: number }; global: StudyGlobal };
+    const g = r.global;
+    expect(g.available).toBe(true);
+    expect(g.converged).toBe(true);
+    expect(g.runs).toHaveLength(fitIds.length);
+    expect(g.ea!.se).toBeGreaterThan(0);
+    // The demo was generated with Ea = 82 kJ/mol (invented): the global fit recovers it within 3 SE, and the two routes
+    // agree within their combined uncertainty on these clean runs.
+    expect(Math.abs(g.ea!.value! - 82_000)).toBeLessThan(3 * g.ea!.se!);
+    expect(g.agreement!.agree).toBe(true);
+    expect(Math.abs(g.correlation_ea_kref!)).toBeLessThan(0.95);
+  });
+
   it("replicate runs at one temperature: temperatures counted as distinct values, Q10 only between distinct temperatures", async () => {
     // Every demo fit, the drifting 25 °C repeat included: five rate constants at four temperatures.
     const all = (await db("fits").select("id")).map((r) => r.id as number);

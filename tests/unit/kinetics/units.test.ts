@@ -88,11 +88,11 @@ describe("on a saved record: CSV and PDF", () => {
     const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "halflight-units-")), "r.pdf");
     fs.writeFileSync(file, pdf.bytes);
     const text = spawnSync("pdftotext", ["-layout", file, "-"], { encoding: "utf8" }).stdout.replace(/\s+/g, " ");
-    // The standard PDF fonts print superscripts as ^n (the report's own fonts are a later step).
-    const ascii = (u: string) => u.replace(/⁻¹/g, "^-1");
-    expect(text).toMatch(/second-order: [^]*? k = [^=]*? L mol\^-1 s\^-1 95 % CI/);
-    expect(text).toMatch(/zero-order: [^]*? k = [^=]*? mol L\^-1 s\^-1 95 % CI/);
-    expect(text).toMatch(/first-order: [^]*? k = [0-9.]+ ± [0-9.]+ s\^-1 95 % CI/);
-    expect(text).toMatch(/biexponential: [^]*? k1 = [0-9.]+ ± [0-9.]+ s\^-1 [^]*? c = [^=]*? mol L\^-1 95 % CI/);
+    // The report embeds the app's own typeface: units print as on screen (superscript minus one), never as ^-1.
+    expect(text).toMatch(/second-order: [^]*? k = [^=]*? L mol⁻¹ s⁻¹ 95 % CI/);
+    expect(text).toMatch(/zero-order: [^]*? k = [^=]*? mol L⁻¹ s⁻¹ 95 % CI/);
+    expect(text).toMatch(/first-order: [^]*? k = [0-9.]+ ± [0-9.]+ s⁻¹ 95 % CI/);
+    expect(text).toMatch(/biexponential: [^]*? k1 = [0-9.]+ ± [0-9.]+ s⁻¹ [^]*? c = [^=]*? mol L⁻¹ 95 % CI/);
+    expect(text).not.toMatch(/\^-1/);
   });
 });
