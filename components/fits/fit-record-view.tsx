@@ -86,7 +86,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
           </p>
         )}
         <p className="mt-3 text-xs text-ink-500">
-          {rec.engine_version} · content hash <span className="font-mono">{rec.content_hash.slice(0, 16)}…</span> · data SHA-256 <span className="font-mono">{rec.data_sha256.slice(0, 16)}…</span>
+          {rec.engine_version} · content hash <span className="break-all font-mono">{rec.content_hash.slice(0, 16)}…</span> · data SHA-256 <span className="break-all font-mono">{rec.data_sha256.slice(0, 16)}…</span>
         </p>
         {rec.results.favoured && <p className="mt-2 text-sm">Favoured by the statistics: <strong>{rec.results.favoured.model}</strong>: {rec.results.favoured.why}</p>}
         {rec.results.notes.map((n) => (

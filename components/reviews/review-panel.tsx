@@ -132,13 +132,13 @@ export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: 
           {comments.data?.comments.length === 0 && <li className="text-ink-500">No comments.</li>}
         </ul>
         <form
-          className="mt-2 flex items-end gap-2"
+          className="mt-2 flex flex-wrap items-end gap-2"
           onSubmit={async (e) => {
             e.preventDefault();
             if (comment.trim() && (await send(`/api/fits/${fitId}/comments`, { body: comment }, "Comment added."))) setComment("");
           }}
         >
-          <div className="flex-1">
+          <div className="min-w-0 flex-1 basis-56">
             <Input label="Add a comment" value={comment} onChange={(e) => setComment(e.target.value)} />
           </div>
           <Button type="submit" variant="secondary" disabled={!comment.trim() || busy}>
