@@ -4,6 +4,7 @@ import { useActionState } from "react";
 import { firstRunAction, type FirstRunState } from "@/app/first-run/actions";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
+import { FormErrors } from "./form-errors";
 
 const START: FirstRunState = { errors: [], values: {} };
 
@@ -19,13 +20,7 @@ export function FirstRunForm({ token }: { token: string }) {
       <Input label="Your e-mail" name="adminEmail" type="email" defaultValue={v.adminEmail} autoComplete="email" required />
       <Input label="Password" name="password" type="password" autoComplete="new-password" hint="At least 12 characters, and not your e-mail address." required />
       <Input label="The same password again" name="again" type="password" autoComplete="new-password" required />
-      {state.errors.length > 0 && (
-        <ul role="alert" data-testid="first-run-error" className="list-disc rounded-cell bg-fault-100 px-6 py-2 text-sm text-fault-700">
-          {state.errors.map((x) => (
-            <li key={x}>{x}</li>
-          ))}
-        </ul>
-      )}
+      <FormErrors errors={state.errors} testId="first-run-error" />
       <Button type="submit" className="w-full" disabled={busy}>
         {busy ? "Creating…" : "Create the lab and sign in"}
       </Button>

@@ -5,6 +5,7 @@ import { useActionState } from "react";
 import { acceptInvitationAction, type PasswordFormState } from "@/app/sign-in/actions";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
+import { FormErrors } from "./form-errors";
 
 const START: PasswordFormState = { errors: [], email: "" };
 
@@ -15,13 +16,7 @@ export function SetPasswordForm({ token, minLength }: { token: string; minLength
       <input type="hidden" name="token" value={token} />
       <Input label="New password" name="password" type="password" autoComplete="new-password" hint={`At least ${minLength} characters, and not your e-mail address.`} required />
       <Input label="The same password again" name="again" type="password" autoComplete="new-password" required />
-      {state.errors.length > 0 && (
-        <ul role="alert" data-testid="set-password-error" className="list-disc rounded-cell bg-fault-100 px-6 py-2 text-sm text-fault-700">
-          {state.errors.map((x) => (
-            <li key={x}>{x}</li>
-          ))}
-        </ul>
-      )}
+      <FormErrors errors={state.errors} testId="set-password-error" />
       <Button type="submit" className="w-full" disabled={busy}>
         {busy ? "Saving…" : "Set password and sign in"}
       </Button>

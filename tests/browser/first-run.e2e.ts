@@ -53,6 +53,16 @@ afterAll(async () => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
+async function submitLab(p: Page) {
+  await p.getByLabel("Lab name").fill("Harbour Assay Lab");
+  await p.getByLabel("Short name for addresses (lower case, digits, dashes)").fill("harbour");
+  await p.getByLabel("Your name").fill("T. Wren");
+  await p.getByLabel("Your e-mail").fill("lead@harbour.example");
+  await p.getByLabel("Password", { exact: true }).fill("a long private passphrase");
+  await p.getByLabel("The same password again").fill("a long private passphrase");
+  await p.getByRole("button", { name: "Create the lab and sign in" }).click();
+}
+
 describe("first run of a new install", () => {
   it("prints a one-time address; the page refuses a wrong token and creates the lab with the right one", async () => {
     const printed = out.match(/\/first-run\?token=([A-Za-z0-9_-]+)/);
@@ -62,24 +72,12 @@ describe("first run of a new install", () => {
     try {
       await page.goto(`${base}/first-run`);
       await page.getByLabel("Set-up token (printed on the server's console)").fill("not-the-token-printed");
-      await page.getByLabel("Lab name").fill("Harbour Assay Lab");
-      await page.getByLabel("Short name for addresses (lower case, digits, dashes)").fill("harbour");
-      await page.getByLabel("Your name").fill("T. Wren");
-      await page.getByLabel("Your e-mail").fill("lead@harbour.example");
-      await page.getByLabel("Password", { exact: true }).fill("a long private passphrase");
-      await page.getByLabel("The same password again").fill("a long private passphrase");
-      await page.getByRole("button", { name: "Create the lab and sign in" }).click();
+      await submitLab(page);
       await expect.poll(() => page.getByTestId("first-run-error").textContent()).toMatch(/set-up token is not right/);
       await page.screenshot({ path: path.join(artifacts, "first-run-refused.png"), fullPage: true });
 
       await page.goto(`${base}/first-run?token=${printed![1]}`);
-      await page.getByLabel("Lab name").fill("Harbour Assay Lab");
-      await page.getByLabel("Short name for addresses (lower case, digits, dashes)").fill("harbour");
-      await page.getByLabel("Your name").fill("T. Wren");
-      await page.getByLabel("Your e-mail").fill("lead@harbour.example");
-      await page.getByLabel("Password", { exact: true }).fill("a long private passphrase");
-      await page.getByLabel("The same password again").fill("a long private passphrase");
-      await page.getByRole("button", { name: "Create the lab and sign in" }).click();
+      await submitLab(page);
       await page.waitForURL(/\/admin\/members$/);
       // An empty lab, no demo data: its administrator is its only member.
       await expect.poll(() => page.locator("#main").textContent()).toMatch(/lead@harbour\.example/);

@@ -11,12 +11,8 @@ import type { Role } from "@/lib/permissions/roles";
 
 export const onPostgres = Boolean(process.env.DATABASE_URL);
 
-export async function freshDb(): Promise<Knex> {
-  if (!onPostgres) {
-    const db = openDb(":memory:");
-    await migrateToLatest(db);
-    return db;
-  }
+/** A new, empty database on the PostgreSQL test cluster: its address. */
+async function newPostgresDatabase(): Promise<string> {
   const url = new URL(process.env.DATABASE_URL!);
   const name = `t_${process.pid}_${randomBytes(6).toString("hex")}`;
   const admin = knex(postgresConfig(url.toString()));
@@ -26,7 +22,16 @@ export async function freshDb(): Promise<Knex> {
     await admin.destroy();
   }
   url.pathname = `/${name}`;
-  const db = knex(postgresConfig(url.toString()));
+  return url.toString();
+}
+
+export async function freshDb(): Promise<Knex> {
+  if (!onPostgres) {
+    const db = openDb(":memory:");
+    await migrateToLatest(db);
+    return db;
+  }
+  const db = knex(postgresConfig(await newPostgresDatabase()));
   await migrateToLatest(db);
   return db;
 }
@@ -65,14 +70,6 @@ export async function failInserts(db: Knex, table: string, message: string): Pro
 /** An empty database (not migrated) for a spawned command: its environment and a way to open it from the test. */
 export async function emptyTarget(file: string): Promise<{ env: Record<string, string>; open(): Knex }> {
   if (!onPostgres) return { env: { DATABASE_FILE: file, DATABASE_URL: "" }, open: () => openDb(file) };
-  const url = new URL(process.env.DATABASE_URL!);
-  const name = `t_${process.pid}_${randomBytes(6).toString("hex")}`;
-  const admin = knex(postgresConfig(url.toString()));
-  try {
-    await admin.raw(`CREATE DATABASE ${name}`);
-  } finally {
-    await admin.destroy();
-  }
-  url.pathname = `/${name}`;
-  return { env: { DATABASE_URL: url.toString() }, open: () => knex(postgresConfig(url.toString())) };
+  const url = await newPostgresDatabase();
+  return { env: { DATABASE_URL: url }, open: () => knex(postgresConfig(url)) };
 }

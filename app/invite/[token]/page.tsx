@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { SetPasswordForm } from "@/components/auth/set-password-form";
-import { Mark } from "@/components/shell/mark";
+import { AuthCard } from "@/components/auth/auth-card";
 import { getDb } from "@/db";
 import { openInvitation } from "@/lib/admin/invitations";
 import { AppError } from "@/lib/errors";
@@ -29,21 +29,12 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
   }
   const inv = opened.invitation;
   return (
-    <main className="grid min-h-screen place-items-center px-4">
-      <div className="w-full max-w-md">
-        <div className="mb-8 flex items-center gap-3">
-          <Mark />
-          <p className="text-xl font-semibold tracking-tight">Halflight</p>
-        </div>
-        <div className="rounded-cell bg-paper-raised p-6 shadow-lift">
-          <h1 className="text-lg font-semibold">Welcome, {inv.display_name}</h1>
-          <p className="mb-5 mt-1 text-sm text-ink-700">
-            You are invited to {opened.lab.name} as {ROLE_LABELS[inv.role].toLowerCase()}. Choose a password for {inv.email}.
-          </p>
-          <SetPasswordForm token={token} minLength={opened.password_min_length} />
-        </div>
-        <p className="mt-6 text-xs text-ink-500">The link works once and expires {inv.expires_at.slice(0, 16).replace("T", " ")} UTC. Your account is personal: never share a sign-in.</p>
-      </div>
-    </main>
+    <AuthCard
+      title={`Welcome, ${inv.display_name}`}
+      lede={`You are invited to ${opened.lab.name} as ${ROLE_LABELS[inv.role].toLowerCase()}. Choose a password for ${inv.email}.`}
+      footer={<p className="mt-6 text-xs text-ink-500">The link works once and expires {inv.expires_at.slice(0, 16).replace("T", " ")} UTC. Your account is personal: never share a sign-in.</p>}
+    >
+      <SetPasswordForm token={token} minLength={opened.password_min_length} />
+    </AuthCard>
   );
 }
