@@ -13,7 +13,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
   const waiting = can(user, "review:decide") ? await waitingForMe(await getDb(), user) : 0;
   const areas = AREAS.filter((a) => can(user, a.permission)).map(({ href, label }) => ({ href, label, count: href === "/reviews" && waiting > 0 ? waiting : undefined }));
   return (
-    <div className="flex min-h-screen">
+    <div className="flex min-h-screen flex-col md:flex-row">
       <SideRail
         areas={areas}
         lab={user.labName}

@@ -58,7 +58,7 @@ export function ShareLinks({ fitId }: { fitId: number }) {
       <ul className="mt-3 space-y-1 text-sm">
         {links.data?.links.map((l) => (
           <li key={l.id} className="flex flex-wrap items-center gap-2">
-            <span>
+            <span className="min-w-0 break-words">
               Link {l.id}
               {l.recipient ? ` to ${l.recipient}` : ""} · made {l.created_at.slice(0, 10)} · {l.revoked_at ? `revoked ${l.revoked_at.slice(0, 10)}` : `expires ${l.expires_at.slice(0, 10)}`} · opened {l.views}×
             </span>

@@ -16,11 +16,12 @@ export function SideRail({
 }) {
   const path = usePathname();
   return (
-    <aside className="flex w-rail shrink-0 flex-col border-r border-ink-100 bg-paper-sunk">
+    // A rail on the left from tablet width up; above the page, its links wrapping, on a phone.
+    <aside className="flex w-full shrink-0 flex-col border-b border-ink-100 bg-paper-sunk md:w-rail md:border-b-0 md:border-r">
       <a href="#main" className="sr-only focus:not-sr-only focus:m-2 focus:rounded-cell focus:bg-paper-raised focus:p-2">
         Skip to content
       </a>
-      <div className="flex items-center gap-3 px-5 py-5">
+      <div className="flex items-center gap-3 px-5 py-3 md:py-5">
         <Mark size={30} />
         <div className="min-w-0">
           <p className="font-semibold leading-tight">Halflight</p>
@@ -30,7 +31,7 @@ export function SideRail({
         </div>
       </div>
       <nav aria-label="Workspace" className="flex-1 px-3">
-        <ul className="space-y-0.5" data-testid="workspace-nav">
+        <ul className="flex flex-wrap gap-1 md:flex-col md:gap-0.5" data-testid="workspace-nav">
           {areas.map((a) => {
             const active = path === a.href || path.startsWith(a.href + "/");
             return (
@@ -55,7 +56,7 @@ export function SideRail({
           })}
         </ul>
       </nav>
-      <div className="border-t border-ink-100 px-5 py-4 text-sm">
+      <div className="flex items-baseline gap-x-3 border-t border-ink-100 px-5 py-2 text-sm md:block md:py-4">
         <p className="font-semibold" data-testid="signed-in-name">
           {person.name}
         </p>
@@ -65,7 +66,7 @@ export function SideRail({
         <button
           type="button"
           onClick={() => signOut({ callbackUrl: "/sign-in" })}
-          className="mt-3 text-sm font-semibold text-quartz-700 underline-offset-2 hover:underline"
+          className="text-sm font-semibold text-quartz-700 underline-offset-2 hover:underline md:mt-3"
         >
           Sign out
         </button>
