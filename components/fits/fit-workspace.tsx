@@ -553,7 +553,7 @@ function ComparisonTable({ outcome, perMinute, yUnit, stale }: { outcome: Outcom
           {n}
         </p>
       ))}
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full text-sm" data-testid="comparison">
           <thead>
             <tr className="border-b border-ink-100 text-left text-xs uppercase tracking-wide text-ink-500">

@@ -51,7 +51,7 @@ export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; 
               {w}
             </p>
           ))}
-          <div className="mt-4 overflow-x-auto">
+          <div className="relative mt-4 overflow-x-auto">
             <table className="w-full border-collapse text-sm">
               <caption className="sr-only">Each run in the global fit</caption>
               <thead>

@@ -97,7 +97,7 @@ export function DataTable<T>({
           {state.total} in all{pending ? " · loading…" : ""}
         </p>
       </form>
-      <div className={cn("overflow-x-auto rounded-cell border border-ink-100 bg-paper-raised", pending && "opacity-70")}>
+      <div className={cn("relative overflow-x-auto rounded-cell border border-ink-100 bg-paper-raised", pending && "opacity-70")}>
         <table className="w-full border-collapse text-sm">
           <caption className="sr-only">{caption}</caption>
           <thead>

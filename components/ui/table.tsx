@@ -4,7 +4,8 @@ import { cn } from "./cn";
 
 export function Table({ caption, children }: { caption: string; children: ReactNode }) {
   return (
-    <div className="overflow-x-auto rounded-cell border border-ink-100 bg-paper-raised">
+    // relative: the screen-reader caption (absolutely positioned) stays inside the scrolling box instead of widening the page.
+    <div className="relative overflow-x-auto rounded-cell border border-ink-100 bg-paper-raised">
       <table className="w-full border-collapse text-sm">
         <caption className="sr-only">{caption}</caption>
         {children}

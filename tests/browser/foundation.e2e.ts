@@ -28,7 +28,8 @@ describe("each demo role", () => {
       await signIn(page, baseURL, u.email, u.password);
       const nav = page.getByTestId("workspace-nav");
       await nav.waitFor();
-      const labels = (await nav.getByRole("link").allTextContents()).map((s) => s.trim());
+      // A link's text may end with a count of waiting records (the review desk's badge, checked in reviews.e2e.ts).
+      const labels = (await nav.getByRole("link").allTextContents()).map((s) => s.trim().replace(/\d+$/, ""));
       const expected = AREAS.filter((a) => can({ userId: 0, role: u.role }, a.permission)).map((a) => a.label);
       expect(labels).toEqual(expected);
       expect(labels.length).toBeGreaterThan(0);
