@@ -86,7 +86,7 @@ export function ValidationWorkspace({ runs, record }: { runs: RunRow[]; record: 
             <p className="text-sm text-ink-500">
               {record.report.engine_version} · Node {record.report.node} · {record.report.platform} · {record.report.started_at.replace("T", " ").slice(0, 19)} UTC · {record.run_by} · {record.report.seconds.toFixed(1)} s
             </p>
-            <p className="font-mono text-xs text-ink-500">report content hash {record.content_hash}</p>
+            <p className="break-all font-mono text-xs text-ink-500">report content hash {record.content_hash}</p>
             <div className="mt-3 flex flex-wrap items-end gap-3">
               <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 px-3 text-sm font-semibold" href={`/api/validation/${record.id}/report`} data-testid="validation-pdf">
                 PDF report

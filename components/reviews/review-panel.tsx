@@ -105,7 +105,7 @@ export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: 
           <li key={g.id} className={`rounded-cell border px-3 py-2 text-sm ${g.void ? "border-fault-700 bg-fault-100" : "border-ink-100"}`}>
             <span className="font-semibold">{g.printed_name}</span> · <span className="uppercase tracking-wide">{g.meaning}</span> ·{" "}
             <span className="font-mono">{g.signed_at.replace("T", " ").slice(0, 19)} UTC</span>
-            <span className="block font-mono text-xs text-ink-500">signed content hash {g.content_hash}</span>
+            <span className="block break-all font-mono text-xs text-ink-500">signed content hash {g.content_hash}</span>
             {g.void && <span className="font-semibold text-fault-700">VOID: the record no longer matches what was signed.</span>}
           </li>
         ))}
