@@ -10,6 +10,7 @@ import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { listAuditTrail } from "@/lib/audit";
+import { auditSentence } from "@/lib/audit/sentences";
 import { AppError } from "@/lib/errors";
 import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord, type FitRecordView as FitRecordData } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
@@ -164,12 +165,10 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
       {!outside && (
       <section className="mt-8 min-w-0 break-words" aria-label="Audit events of this record">
         <h2 className="mb-2 text-lg font-semibold">Audit events of this record</h2>
-        <ol className="space-y-1 font-mono text-xs" data-testid="record-audit">
+        <ol className="space-y-1 text-sm" data-testid="record-audit">
           {audit.map((e) => (
             <li key={e.id}>
-              {e.at.replace("T", " ").slice(0, 19)} UTC · {e.actorLabel ?? "—"} · {e.action}
-              {e.objectVersion ? ` · v${e.objectVersion}` : ""}
-              {e.reason ? ` · ${e.reason}` : ""}
+              <span className="num font-mono text-xs text-ink-500">{e.at.replace("T", " ").slice(0, 19)} UTC</span> {auditSentence(e)}
             </li>
           ))}
         </ol>
