@@ -88,6 +88,8 @@ describe("fitting workspace", () => {
     expect(await plot.locator("svg polyline").count()).toBe(1);
     expect(await plot.locator("svg circle").count()).toBe(1);
     await expect(plot.locator("figcaption").textContent()).resolves.toMatch(/1 outside the fit.*Nonlinear first order fit/);
+    // The record's audit events read as sentences: who did what to which version, and why.
+    await expect(page.getByTestId("record-audit").textContent()).resolves.toMatch(/saved a new version of fit record \d+ version 2, because: bubble excluded/);
     await page.screenshot({ path: path.join(artifacts, "fit-record.png"), fullPage: true });
 
     // The CSV's k, printed the page's way, is the page's k.
