@@ -333,5 +333,5 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
     const r01 = correlation[0]![1]!;
     if (Math.abs(r01) > 0.95) warnings.push(`Ea and kref are strongly correlated (r = ${r01.toFixed(3)}); choose Tref nearer the middle of the temperatures.`);
   }
-  return { ...base, ssr: lm.ssr, parameters, runs: runResults, correlation, converged: true, iterations: lm.iterations, message: `Converged (${lm.stop}) after ${lm.iterations} iterations.`, warnings };
+  return { ...base, ssr: lm.ssr, parameters, runs: runResults, correlation, converged: true, iterations: lm.iterations, message: `Converged after ${lm.iterations} iterations.`, warnings };
 }
