@@ -40,8 +40,13 @@ export async function listAuditRows(
 }
 
 /** Every event of one object, oldest first (a record's report prints them all). */
-export async function auditRowsOfObject(db: Db, labId: number, objectType: string, objectId: string): Promise<DbAuditEventRow[]> {
-  return db("audit_events").where({ lab_id: labId, object_type: objectType, object_id: objectId }).orderBy("id");
+export async function auditRowsOfObject(db: Db, labId: number, objectType: string, objectId: string): Promise<AuditRowWithActor[]> {
+  const rows: Array<DbAuditEventRow & { actor_name: string | null }> = await db("audit_events as a")
+    .leftJoin("users as u", "u.id", "a.actor_user_id")
+    .where({ "a.lab_id": labId, "a.object_type": objectType, "a.object_id": objectId })
+    .orderBy("a.id")
+    .select("a.*", "u.display_name as actor_name");
+  return rows.map((r) => ({ ...r, old_values: values(r.old_values, r.id, "old values"), new_values: values(r.new_values, r.id, "new values") }));
 }
 
 /** One page of rows after `afterId`, oldest first: verification streams the trail in bounded memory. */

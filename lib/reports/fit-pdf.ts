@@ -4,6 +4,7 @@
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
+import { auditSentence } from "@/lib/audit/sentences";
 import { verifyFitVersion } from "@/lib/integrity";
 import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
@@ -101,7 +102,11 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
     line(`${s.printed_name} · ${s.meaning.toUpperCase()} · ${s.signed_at.replace("T", " ").slice(0, 19)} UTC · signed hash ${s.content_hash}${s.void ? " · VOID (the record no longer matches)" : ""}`, 9);
 
   heading("Audit events of this record");
-  for (const a of audit) line(`${a.at.replace("T", " ").slice(0, 19)} UTC · ${a.action} · v${a.object_version ?? "—"}${a.reason ? ` · ${a.reason}` : ""}`, 8, "mono");
+  for (const a of audit)
+    line(
+      `${a.at.replace("T", " ").slice(0, 19)} UTC  ${auditSentence({ action: a.action, actorLabel: a.actor_name ?? a.actor_label, actorUserId: a.actor_user_id, objectType: a.object_type, objectId: a.object_id, objectVersion: a.object_version, oldValues: a.old_values, newValues: a.new_values, reason: a.reason })}`,
+      8,
+    );
 
   doc.moveDown(0.8);
   line("An estimate for qualified review: shelf-life and release decisions follow the lab's SOPs and local regulations.", 8);

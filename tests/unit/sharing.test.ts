@@ -158,7 +158,8 @@ describe("review mail and the PDF report", () => {
     expect(text.stdout).toContain("Rafe Okonkwo · APPROVED");
     expect(text.stdout).toContain("Amara Quist · AUTHORED");
     expect(text.stdout.replace(/\s+/g, "")).toContain(hash);
-    expect(text.stdout).toMatch(/fit\.approved/);
+    // The record's audit events in sentences.
+    expect(text.stdout).toMatch(/Rafe Okonkwo approved fit record 2 version 1 \(state: submitted → approved\)/);
     // The demo run follows the demo method: its verdict per criterion is in the report.
     expect(text.stdout).toContain("Method criteria: all met");
     expect(text.stdout).toMatch(/PASS\s+the fit converged: yes/);
