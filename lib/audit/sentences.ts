@@ -52,7 +52,10 @@ function shown(v: unknown): string {
   if (v === null || v === undefined || v === "") return "none";
   if (typeof v === "string") return v.length > 60 ? `${v.slice(0, 57)}…` : v;
   if (typeof v === "number" || typeof v === "boolean") return String(v);
-  return JSON.stringify(v).slice(0, 60);
+  // A record named in a value (a method, say): its name and version, never its JSON.
+  const o = v as { name?: unknown; version?: unknown };
+  if (typeof o.name === "string") return `${o.name}${typeof o.version === "number" ? ` v${o.version}` : ""}`;
+  return "a changed value";
 }
 
 /** The fields whose change the sentence names (old → new), in a fixed order. */
@@ -66,7 +69,8 @@ export function auditSentence(e: Pick<AuditEvent, "action" | "actorLabel" | "act
   let s = `${who} ${verb}${needsObject && object ? ` ${object}` : ""}`;
   const oldV = (e.oldValues ?? {}) as Record<string, unknown>;
   const newV = (e.newValues ?? {}) as Record<string, unknown>;
-  const changes = NAMED.filter((k) => k in newV && (k in oldV ? shown(oldV[k]) !== shown(newV[k]) : true)).map((k) => `${k.replace(/_/g, " ")}: ${k in oldV ? `${shown(oldV[k])} → ` : ""}${shown(newV[k])}`);
+  // Only what changed: a field in both the old and the new values, with different values.
+  const changes = NAMED.filter((k) => k in newV && k in oldV && shown(oldV[k]) !== shown(newV[k])).map((k) => `${k.replace(/_/g, " ")}: ${shown(oldV[k])} → ${shown(newV[k])}`);
   if (changes.length) s += ` (${changes.join("; ")})`;
   if (e.reason) s += `, because: ${e.reason}`;
   return `${s}.`;

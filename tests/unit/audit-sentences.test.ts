@@ -18,6 +18,15 @@ describe("audit sentences", () => {
       "Amara Quist changed the method of run 4 (method: none → Blue fade, 590 nm), because: confirmed.",
     );
   });
+  it("a value that is a record reads as its name and version, and a value that only appears is not called a change", () => {
+    expect(
+      auditSentence({ ...base, action: "fit.version_saved", actorLabel: "Amara Quist", objectType: "fit", objectId: "1", objectVersion: 2, oldValues: { version: 1 }, newValues: { version: 2, method: { id: 1, record_id: 1, version: 1, name: "Blue fade" } }, reason: "bubble excluded" }),
+    ).toBe("Amara Quist saved a new version of fit record 1 version 2, because: bubble excluded.");
+    expect(auditSentence({ ...base, action: "run.method_assigned", actorLabel: "A", objectType: "run", objectId: "4", oldValues: { method: { name: "Old", version: 2 } }, newValues: { method: { name: "New", version: 1 } } })).toBe(
+      "A changed the method of run 4 (method: Old v2 → New v1).",
+    );
+  });
+
   it("sign-ins have no object; an unknown code is still a sentence", () => {
     expect(auditSentence({ ...base, action: "auth.signed_in", actorLabel: "Amara Quist" })).toBe("Amara Quist signed in.");
     expect(auditSentence({ ...base, action: "x.y", actorLabel: null, actorUserId: null, objectType: "fit", objectId: "1" })).toBe("The system did “x.y” to fit record 1.");
