@@ -30,9 +30,12 @@ export interface ParsedExport {
 export class ParseError extends Error {
   override name = "ParseError";
   readonly line?: number;
+  /** The message without its line prefix (to rebuild the error on another thread). */
+  readonly reason: string;
   constructor(message: string, line?: number) {
     super(line ? `line ${line}: ${message}` : message);
     this.line = line;
+    this.reason = message;
   }
 }
 

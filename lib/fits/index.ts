@@ -192,7 +192,6 @@ export async function fitVersions(db: Knex, labId: number, id: number) {
 /** Every version of a fit record, each with what changed from the one before (for callers that hold the record). */
 export async function versionsOfRecord(db: Knex, labId: number, recordId: number) {
   const versions = await listVersions(db, labId, recordId);
-  const options = versions.map((v) => v.options);
   return versions.map((v, i) => ({
     id: v.id,
     version: v.version,
@@ -203,8 +202,8 @@ export async function versionsOfRecord(db: Knex, labId: number, recordId: number
     k: v.k_value,
     k_se: v.k_se,
     /** k's unit under this version's primary model and conversion. */
-    k_unit: recordParameterUnit(v.primary_model, "k", fitUnits(parseResultsQuantity(v.results), options[i]!.conversion)),
-    changes: i === 0 ? ["first version"] : describeChanges(options[i - 1]!, options[i]!),
+    k_unit: recordParameterUnit(v.primary_model, "k", fitUnits(parseResultsQuantity(v.results), v.options.conversion)),
+    changes: i === 0 ? ["first version"] : describeChanges(versions[i - 1]!.options, v.options),
   }));
 }
 

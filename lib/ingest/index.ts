@@ -36,7 +36,7 @@ export function checkSize(fileName: string, size: number, maxBytes: number = ING
 async function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<ParsedExport & { ranking: Array<{ name: string; confidence: number }> }> {
   // Parsing is CPU work: it runs on a worker thread, with the pool's time limit.
   const r = await runJob("parse-export", { bytes, fileName, parser: mapping.parser, timeColumn: mapping.timeColumn });
-  if (r.error) throw refuse(fileName, new ParseError(r.error.message.replace(/^line \d+: /, ""), r.error.line));
+  if (r.error) throw refuse(fileName, new ParseError(r.error.reason, r.error.line));
   const parsed = r.parsed!;
   if (parsed.series.length > INGEST_LIMITS.maxChannels)
     throw new AppError({ code: "unprocessable", message: `${fileName} has ${parsed.series.length} channels; the limit is ${INGEST_LIMITS.maxChannels}.` });

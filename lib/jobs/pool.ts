@@ -30,10 +30,10 @@ interface Slot {
   timer: NodeJS.Timeout | null;
 }
 
-function revive(e: { name: string; message: string; code?: string; line?: number }): Error {
+function revive(e: { name: string; message: string; reason?: string; code?: string; line?: number }): Error {
   if (e.name === "FitSpecError") return new FitSpecError(e.message);
   if (e.name === "GlobalFitError") return new GlobalFitError(e.message);
-  if (e.name === "ParseError") return Object.assign(new ParseError(e.message.replace(/^line \d+: /, ""), e.line), {});
+  if (e.name === "ParseError") return new ParseError(e.reason ?? e.message, e.line);
   if (e.name === "AppError" && e.code) return new AppError({ code: e.code as never, message: e.message, line: e.line });
   return new Error(e.message);
 }
@@ -57,7 +57,7 @@ class JobPool {
   private spawn(): Slot {
     const slot: Slot = { worker: new Worker(this.file), job: null, timer: null };
     slot.worker.unref();
-    slot.worker.on("message", (m: { id: number; ok: boolean; output?: unknown; error?: { name: string; message: string; code?: string; line?: number } }) => {
+    slot.worker.on("message", (m: { id: number; ok: boolean; output?: unknown; error?: { name: string; message: string; reason?: string; code?: string; line?: number } }) => {
       const job = slot.job;
       if (!job || job.id !== m.id) return;
       this.finish(slot);

@@ -8,7 +8,7 @@ export interface JobTypes {
   "global-fit": { input: { model: string; runs: GlobalRun[]; form: GlobalForm }; output: GlobalFitResult };
   "parse-export": {
     input: { bytes: Uint8Array; fileName: string; parser?: string; timeColumn?: string };
-    output: { parsed: ParsedExport | null; error: { message: string; line?: number } | null; ranking: Array<{ name: string; confidence: number }> };
+    output: { parsed: ParsedExport | null; error: { message: string; reason: string; line?: number } | null; ranking: Array<{ name: string; confidence: number }> };
   };
 }
 export type JobKind = keyof JobTypes;
@@ -20,6 +20,6 @@ export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"]) => JobTypes[K
   "parse-export": ({ bytes, fileName, parser, timeColumn }) => {
     const ranking = rankParsers(bytes, fileName).map((r) => ({ name: r.parser.name, confidence: r.confidence }));
     const r = parseExport(bytes, fileName, parser, { timeColumn });
-    return r instanceof ParseError ? { parsed: null, error: { message: r.message, line: r.line }, ranking } : { parsed: r, error: null, ranking };
+    return r instanceof ParseError ? { parsed: null, error: { message: r.message, reason: r.reason, line: r.line }, ranking } : { parsed: r, error: null, ranking };
   },
 };

@@ -7,7 +7,7 @@ parentPort!.on("message", (m: { id: number; kind: JobKind; input: never }) => {
     const output = WORK[m.kind](m.input);
     parentPort!.postMessage({ id: m.id, ok: true, output });
   } catch (e) {
-    const err = e as Error & { code?: string; line?: number };
-    parentPort!.postMessage({ id: m.id, ok: false, error: { name: err.name, message: err.message, code: err.code, line: err.line } });
+    const err = e as Error & { code?: string; line?: number; reason?: string };
+    parentPort!.postMessage({ id: m.id, ok: false, error: { name: err.name, message: err.message, reason: err.reason, code: err.code, line: err.line } });
   }
 });

@@ -45,7 +45,7 @@ describe("the job pool", () => {
   it("a parse refused on a worker comes back as the parser's own error, with its line", async () => {
     const r = await runJob("parse-export", { bytes: new TextEncoder().encode("Time (s),A\n0,1\n1,0.5x\n"), fileName: "bad.csv" });
     expect(r.parsed).toBeNull();
-    expect(r.error).toEqual({ message: 'line 3: "A" holds "0.5x", which is not a number', line: 3 });
+    expect(r.error).toEqual({ message: 'line 3: "A" holds "0.5x", which is not a number', reason: '"A" holds "0.5x", which is not a number', line: 3 });
     expect(r.ranking[0]!.name).toBe("delimited");
   });
 });
