@@ -63,7 +63,9 @@ export interface DbRawFileRow {
   sha256: string;
   name: string;
   size: number;
+  /** Empty when the bytes are held in the object store (stored_in "object-store"). */
   bytes: Buffer;
+  stored_in: "database" | "object-store";
   uploaded_by: number | null;
   uploaded_at: string;
 }
@@ -297,6 +299,22 @@ export interface DbApiKeyRow {
   revoked_at: string | null;
 }
 
+export interface DbJobRow {
+  id: number;
+  lab_id: number;
+  kind: string;
+  state: "queued" | "running" | "done" | "failed";
+  progress_done: number;
+  progress_total: number;
+  progress_note: string | null;
+  result: string | null;
+  error: string | null;
+  created_by: number | null;
+  created_at: string;
+  started_at: string | null;
+  finished_at: string | null;
+}
+
 declare module "knex/types/tables" {
   interface Tables {
     labs: DbLabRow;
@@ -320,5 +338,6 @@ declare module "knex/types/tables" {
     invitations: DbInvitationRow;
     api_keys: DbApiKeyRow;
     setup_tokens: DbSetupTokenRow;
+    jobs: DbJobRow;
   }
 }

@@ -2,11 +2,13 @@
 // configured. No secrets and no counts in the answer.
 import type { Knex } from "knex";
 import { MIGRATIONS } from "@/db/migrations";
+import { objectStore } from "@/lib/storage/raw-store";
 
 export interface Health {
   ok: boolean;
   database: { reachable: boolean; migrations: "current" | "behind" | "unknown"; pending?: number };
   mail: { configured: boolean; transport: "smtp" | "log" | "none" };
+  raw_store: { kind: "database" | "object-store"; reachable: boolean };
 }
 
 export async function checkHealth(db: Knex, env: Record<string, string | undefined> = process.env): Promise<Health> {
@@ -20,5 +22,8 @@ export async function checkHealth(db: Knex, env: Record<string, string | undefin
   } catch {
     database = { reachable: false, migrations: "unknown" };
   }
-  return { ok: database.reachable && database.migrations === "current" && mail.configured, database, mail };
+  let raw_store: Health["raw_store"] = { kind: "database", reachable: database.reachable };
+  const store = objectStore();
+  if (store) raw_store = { kind: "object-store", reachable: await store.check().then(() => true, () => false) };
+  return { ok: database.reachable && database.migrations === "current" && mail.configured && raw_store.reachable, database, mail, raw_store };
 }

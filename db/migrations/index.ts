@@ -13,6 +13,7 @@ import * as integrity from "./20261202110000_integrity";
 import * as fitsState from "./20261202120000_fits_state";
 import * as rateLimits from "./20261202130000_rate_limits";
 import * as setupTokens from "./20261202140000_setup_tokens";
+import * as rawStoreAndJobs from "./20261202150000_raw_store_and_jobs";
 
 export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = [
   { name: "20261202030000_foundation", ...foundation },
@@ -27,4 +28,5 @@ export const MIGRATIONS: ReadonlyArray<{ name: string; up: (k: Knex) => Promise<
   { name: "20261202120000_fits_state", ...fitsState },
   { name: "20261202130000_rate_limits", ...rateLimits },
   { name: "20261202140000_setup_tokens", ...setupTokens },
+  { name: "20261202150000_raw_store_and_jobs", ...rawStoreAndJobs },
 ];

@@ -27,8 +27,8 @@ export async function storedRawFileOfRun(db: Db, labId: number, runId: number): 
   return db("runs").where({ lab_id: labId, id: runId }).first("raw_file_id");
 }
 
-export async function storedRawFile(db: Db, labId: number, id: number): Promise<{ bytes: Buffer; sha256: string; name: string } | undefined> {
-  return db("raw_files").where({ lab_id: labId, id }).first("bytes", "sha256", "name");
+export async function storedRawFile(db: Db, labId: number, id: number): Promise<{ bytes: Buffer; sha256: string; name: string; stored_in: string } | undefined> {
+  return db("raw_files").where({ lab_id: labId, id }).first("bytes", "sha256", "name", "stored_in");
 }
 
 export async function signaturesForCheck(db: Db, labId: number, objectType: string, objectId: number): Promise<Array<{ meaning: string; printed_name: string; content_hash: string }>> {

@@ -6,6 +6,7 @@ import path from "node:path";
 import { openConfiguredDb } from "@/db";
 import { checkWritable } from "@/db/writable";
 import { issueFirstRunToken } from "@/lib/admin/setup";
+import { objectStore } from "@/lib/storage/raw-store";
 import { startMailSink } from "../mail/sink";
 
 async function main() {
@@ -20,6 +21,16 @@ async function main() {
       !env.SMTP_URL && env.MAIL_TRANSPORT !== "log" && "SMTP_URL (the mail server for review requests and invitations; or MAIL_TRANSPORT=log to write mail to the log on purpose)",
     ].filter(Boolean);
     if (missing.length) throw new Error(`Halflight will not start without:\n  - ${missing.join("\n  - ")}\nSet them in the environment (README: "Run it for a real lab"), or run the demo with npm run demo.`);
+  }
+  // A configured object store must be reachable, its bucket there, before any upload is taken.
+  const store = objectStore();
+  if (store) {
+    try {
+      await store.check();
+    } catch (e) {
+      throw new Error(`RAW_STORE_URL is set, but its bucket ${store.config.bucket} at ${store.config.endpoint} cannot be reached (${(e as Error).name}: ${(e as Error).message}).`);
+    }
+    console.log(`Raw files are kept in the object store ${store.config.endpoint}/${store.config.bucket}.`);
   }
   // The database must take a write before the server says it is ready.
   const { db, where } = openConfiguredDb();

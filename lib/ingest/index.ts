@@ -6,6 +6,7 @@ import { findRawFileBySha, findRunsOfRawFile, insertRawFile, insertRun, insertSe
 import { getLabSettingsRow } from "@/db/queries/admin";
 import { newestMethodVersion } from "@/db/queries/methods";
 import { recordAudit } from "@/lib/audit";
+import { storeRawBytes } from "@/lib/storage/raw-store";
 import { AppError } from "@/lib/errors";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
 import { PARSE_LIMITS } from "@/parsers/limits";
@@ -184,6 +185,8 @@ export async function ingestExport(
   const at = (input.now ?? new Date()).toISOString();
   const r = mapping.run ?? {};
   const pick = <T>(v: T | null | undefined, fallback: T | null): T | null => (v === undefined ? fallback : v);
+  // The object store (when configured) takes the bytes before the transaction: no network wait holds the database.
+  const held = await storeRawBytes(input.labId, sha256, input.bytes);
   return db.transaction(async (trx) => {
     const method = r.method_id ? await newestMethodVersion(trx, input.labId, r.method_id) : null;
     if (r.method_id && !method) throw new AppError({ code: "unprocessable", message: `There is no method ${r.method_id} in this lab.` });
@@ -192,7 +195,8 @@ export async function ingestExport(
       sha256,
       name: input.fileName,
       size: input.bytes.length,
-      bytes: Buffer.from(input.bytes),
+      bytes: held.bytes,
+      stored_in: held.stored_in,
       uploaded_by: input.userId,
       uploaded_at: at,
     });

@@ -9,6 +9,7 @@ import { recordAudit, verifyAuditTrail, type AuditVerification } from "@/lib/aud
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { fitContentHash, seriesDataSha } from "@/lib/fits";
 import { studyContentHash } from "@/lib/studies";
+import { readRawBytes } from "@/lib/storage/raw-store";
 
 const sha = (b: string | Buffer) => createHash("sha256").update(b).digest("hex");
 
@@ -48,7 +49,8 @@ async function rawFileOfRun(db: Knex, labId: number, runId: number): Promise<Rec
 export async function verifyRawFile(db: Knex, labId: number, rawFileId: number): Promise<RecordIntegrity> {
   const r = await storedRawFile(db, labId, rawFileId);
   if (!r) return { ok: false, problems: [`Raw file ${rawFileId} is missing.`] };
-  return sha(Buffer.from(r.bytes)) === r.sha256 ? { ok: true, problems: [] } : { ok: false, problems: [`The raw file ${r.name} no longer matches its SHA-256: its bytes were replaced.`] };
+  const read = await readRawBytes({ ...r, lab_id: labId });
+  return read.ok ? { ok: true, problems: [] } : { ok: false, problems: [read.problem] };
 }
 
 export async function verifyMethodVersion(db: Knex, labId: number, id: number): Promise<RecordIntegrity> {

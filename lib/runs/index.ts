@@ -4,6 +4,7 @@ import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { LTTB } from "downsample";
 import { getRawFile, getRun, getSeriesWithPoints, listRuns, listSeriesOfRun, unpackF64 } from "@/db/queries/runs";
+import { readRawBytes } from "@/lib/storage/raw-store";
 import { AppError } from "@/lib/errors";
 import type { RunDetail, RunFields, RunListQuery, RunSummary, SeriesSummary } from "@/lib/schemas/runs";
 
@@ -111,8 +112,8 @@ export async function seriesForDisplay(db: Knex, labId: number, runId: number, s
 export async function rawFileDownload(db: Knex, labId: number, id: number) {
   const f = await getRawFile(db, labId, id);
   if (!f) throw new AppError({ code: "not_found", message: `There is no raw file ${id} in this lab.` });
-  // Every read re-hashes the bytes: a replaced file is refused, never served as the original.
-  if (createHash("sha256").update(f.bytes).digest("hex") !== f.sha256)
-    throw new AppError({ code: "conflict", message: `The stored raw file ${f.name} no longer matches its SHA-256: it was changed outside the application and is not served. Tell the lab administrator.` });
-  return f;
+  // Every read re-hashes the bytes (from the row or the object store): a replaced file is refused, never served.
+  const read = await readRawBytes(f);
+  if (!read.ok) throw new AppError({ code: "conflict", message: `${read.problem} It is not served; tell the lab administrator.` });
+  return { name: f.name, sha256: f.sha256, size: f.size, bytes: read.bytes };
 }

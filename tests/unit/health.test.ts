@@ -15,7 +15,7 @@ afterAll(() => db.destroy());
 
 describe("health", () => {
   it("reachable, migrated, mail configured: ok, and the route answers 200", async () => {
-    expect(await checkHealth(db, { SMTP_URL: "smtp://127.0.0.1:2525" })).toEqual({ ok: true, database: { reachable: true, migrations: "current" }, mail: { configured: true, transport: "smtp" } });
+    expect(await checkHealth(db, { SMTP_URL: "smtp://127.0.0.1:2525" })).toEqual({ ok: true, database: { reachable: true, migrations: "current" }, mail: { configured: true, transport: "smtp" }, raw_store: { kind: "database", reachable: true } });
     const prev = process.env.SMTP_URL;
     process.env.SMTP_URL = "smtp://127.0.0.1:2525";
     try {
