@@ -1,7 +1,13 @@
-// Runs once when the server starts: opens the database and applies pending migrations before the first request.
+// Runs once when the server starts: opens the database and applies pending migrations before the first request; on
+// PostgreSQL this process also starts listening on the job queue, so any app process behind the database may take a
+// queued job.
 export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME === "nodejs") {
     const { getDb } = await import("./db");
-    await getDb();
+    const db = await getDb();
+    if (!String(db.client.config.client).includes("sqlite")) {
+      const { startQueueWorker } = await import("./lib/jobs/background");
+      await startQueueWorker(db);
+    }
   }
 }

@@ -3,11 +3,14 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
+import { fetcher } from "@/lib/http/fetcher";
+import type { JobView } from "@/lib/jobs/background";
 import type { ValidationRecord } from "@/lib/validation/records";
 
 interface RunRow {
@@ -20,22 +23,45 @@ interface RunRow {
   run_by_name: string;
 }
 
-export function ValidationWorkspace({ runs, record }: { runs: RunRow[]; record: ValidationRecord | null }) {
+export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; record: ValidationRecord | null; active: JobView | null }) {
   const router = useRouter();
   const toast = useToast();
-  const [running, setRunning] = useState(false);
+  const [jobId, setJobId] = useState<number | null>(active?.id ?? null);
+  const [starting, setStarting] = useState(false);
   const [password, setPassword] = useState("");
   const [onlyFailed, setOnlyFailed] = useState(false);
+  // The queued run is watched until it ends (its row holds the progress the server writes as it goes).
+  const { data } = useSWR<{ job: JobView }>(jobId ? `/api/jobs/${jobId}` : null, fetcher, {
+    refreshInterval: (d) => (d && (d.job.state === "done" || d.job.state === "failed") ? 0 : 500),
+    onSuccess: ({ job: j }) => {
+      if (j.state === "done") {
+        const out = j.result as { id: number; passed: number; failed: number; all_passed: boolean; seconds: number };
+        toast(`${out.passed} passed, ${out.failed} failed in ${out.seconds.toFixed(1)} s.`, out.all_passed ? "pass" : "fault");
+        setJobId(null);
+        router.push(`/admin/validation?run=${out.id}`);
+        router.refresh();
+      } else if (j.state === "failed") {
+        toast(`The validation run stopped: ${j.error ?? "no reason was given"}`, "fault");
+        setJobId(null);
+      }
+    },
+    onError: (e: Error) => toast(`Lost track of the validation run: ${e.message}`, "fault"),
+  });
+  const job = data?.job ?? (active && active.id === jobId ? active : null);
+  const running = starting || (jobId !== null && (!job || job.state === "queued" || job.state === "running"));
 
   async function run() {
-    setRunning(true);
-    const res = await fetch("/api/validation", { method: "POST" });
-    const out = await res.json();
-    setRunning(false);
-    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
-    toast(`${out.passed} passed, ${out.failed} failed in ${out.seconds.toFixed(1)} s.`, out.all_passed ? "pass" : "fault");
-    router.push(`/admin/validation?run=${out.id}`);
-    router.refresh();
+    setStarting(true);
+    try {
+      const res = await fetch("/api/validation", { method: "POST" });
+      const out = await res.json();
+      if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+      setJobId(out.job.id);
+    } catch {
+      toast("The server could not be reached; nothing was started.", "fault");
+    } finally {
+      setStarting(false);
+    }
   }
   async function sign() {
     if (!record) return;
@@ -55,11 +81,30 @@ export function ValidationWorkspace({ runs, record }: { runs: RunRow[]; record: 
           {running ? "Running…" : "Run the validation now"}
         </Button>
         {running && (
-          <div className="w-80" role="progressbar" aria-label="Validation running" aria-busy="true" data-testid="validation-progress">
+          <div
+            className="w-80 max-w-full"
+            role="progressbar"
+            aria-label="Validation running"
+            aria-busy="true"
+            aria-valuemin={0}
+            aria-valuemax={job?.progress.total || undefined}
+            aria-valuenow={job?.progress.total ? job.progress.done : undefined}
+            data-testid="validation-progress"
+          >
             <div className="h-2 w-full overflow-hidden rounded-full bg-ink-100">
-              <div className="h-full w-1/3 animate-pulse bg-quartz-600" />
+              {job?.progress.total ? (
+                <div className="h-full bg-quartz-600 transition-[width]" style={{ width: `${Math.round((100 * job.progress.done) / job.progress.total)}%` }} />
+              ) : (
+                <div className="h-full w-1/3 animate-pulse bg-quartz-600" />
+              )}
             </div>
-            <p className="mt-1 text-xs text-ink-500">Fitting 26 NIST problems, 5 published examples and 4 generated traces on the server (a few seconds)…</p>
+            <p className="mt-1 text-xs text-ink-500" data-testid="validation-progress-text">
+              {!job || job.state === "queued"
+                ? "Queued; a server process will take it in a moment…"
+                : job.progress.total
+                  ? `Reference problem ${job.progress.done} of ${job.progress.total}${job.progress.note ? ` (${job.progress.note})` : ""}`
+                  : "Starting…"}
+            </p>
           </div>
         )}
       </div>

@@ -23,6 +23,8 @@ export async function up(knex: Knex): Promise<void> {
     t.string("finished_at", 32).nullable();
     t.index(["lab_id", "created_at"]);
   });
+  // One queued-or-running job of a kind per lab, kept by the database (a partial unique index, same SQL on both).
+  await knex.raw(`CREATE UNIQUE INDEX jobs_one_active ON jobs (lab_id, kind) WHERE state IN ('queued', 'running')`);
 }
 
 export async function down(knex: Knex): Promise<void> {

@@ -10,7 +10,7 @@ import { Worker } from "node:worker_threads";
 import { AppError } from "@/lib/errors";
 import { FitSpecError, GlobalFitError } from "@/lib/kinetics";
 import { ParseError } from "@/parsers";
-import { WORK, type JobKind, type JobTypes } from "./work";
+import { WORK, type JobKind, type JobTypes, type Progress } from "./work";
 
 export const JOB_TIME_LIMIT_MS = Number(process.env.JOB_TIME_LIMIT_MS ?? 30_000);
 const QUEUE_LIMIT = 200;
@@ -20,6 +20,7 @@ interface Pending {
   kind: JobKind;
   input: unknown;
   timeLimitMs: number;
+  onProgress?: Progress;
   resolve: (v: unknown) => void;
   reject: (e: unknown) => void;
 }
@@ -57,9 +58,13 @@ class JobPool {
   private spawn(): Slot {
     const slot: Slot = { worker: new Worker(this.file), job: null, timer: null };
     slot.worker.unref();
-    slot.worker.on("message", (m: { id: number; ok: boolean; output?: unknown; error?: { name: string; message: string; reason?: string; code?: string; line?: number } }) => {
+    slot.worker.on("message", (m: { id: number; ok?: boolean; progress?: { done: number; total: number; note: string }; output?: unknown; error?: { name: string; message: string; reason?: string; code?: string; line?: number } }) => {
       const job = slot.job;
       if (!job || job.id !== m.id) return;
+      if (m.progress) {
+        job.onProgress?.(m.progress.done, m.progress.total, m.progress.note);
+        return;
+      }
       this.finish(slot);
       if (m.ok) job.resolve(m.output);
       else job.reject(revive(m.error!));
@@ -111,10 +116,10 @@ class JobPool {
     for (const slot of this.slots) if (!slot.job) slot.worker.unref();
   }
 
-  run<K extends JobKind>(kind: K, input: JobTypes[K]["input"], timeLimitMs: number): Promise<JobTypes[K]["output"]> {
+  run<K extends JobKind>(kind: K, input: JobTypes[K]["input"], timeLimitMs: number, onProgress?: Progress): Promise<JobTypes[K]["output"]> {
     if (this.queue.length >= QUEUE_LIMIT) return Promise.reject(new AppError({ code: "unavailable", message: "The server is busy with other computations; try again in a moment.", retryAfter: 5 }));
     return new Promise((resolve, reject) => {
-      this.queue.push({ id: this.next++, kind, input, timeLimitMs, resolve: resolve as (v: unknown) => void, reject });
+      this.queue.push({ id: this.next++, kind, input, timeLimitMs, onProgress, resolve: resolve as (v: unknown) => void, reject });
       this.dispatch();
     });
   }
@@ -136,9 +141,9 @@ function pool(): JobPool | "inline" {
   return holder.__halflightJobs;
 }
 
-/** Runs a job on a worker thread with a time limit (the default JOB_TIME_LIMIT_MS). */
-export async function runJob<K extends JobKind>(kind: K, input: JobTypes[K]["input"], opts: { timeLimitMs?: number } = {}): Promise<JobTypes[K]["output"]> {
+/** Runs a job on a worker thread with a time limit (the default JOB_TIME_LIMIT_MS), reporting progress if it does. */
+export async function runJob<K extends JobKind>(kind: K, input: JobTypes[K]["input"], opts: { timeLimitMs?: number; onProgress?: Progress } = {}): Promise<JobTypes[K]["output"]> {
   const p = pool();
-  if (p === "inline") return WORK[kind](input);
-  return p.run(kind, input, opts.timeLimitMs ?? JOB_TIME_LIMIT_MS);
+  if (p === "inline") return WORK[kind](input, opts.onProgress ?? (() => {}));
+  return p.run(kind, input, opts.timeLimitMs ?? JOB_TIME_LIMIT_MS, opts.onProgress);
 }

@@ -1,11 +1,16 @@
 // The CPU-heavy work the server hands to its worker threads: what each job does, as plain functions (the worker calls
 // them; so does the in-process path the CLI uses). Inputs and outputs cross threads by structured clone.
 import { fitGlobal, fitSeriesWithOptions, type GlobalFitResult, type GlobalForm, type GlobalRun, type SeriesFitOutcome, type SeriesFitOptions } from "@/lib/kinetics";
+import { runValidation, type ValidationReport } from "@/lib/validation";
 import { parseExport, ParseError, rankParsers, type ParsedExport } from "@/parsers";
+
+/** How far a long job has got (sent from the worker thread to the server's job record). */
+export type Progress = (done: number, total: number, note: string) => void;
 
 export interface JobTypes {
   "fit-series": { input: { t: Float64Array; y: Float64Array; options: SeriesFitOptions }; output: SeriesFitOutcome };
   "global-fit": { input: { model: string; runs: GlobalRun[]; form: GlobalForm }; output: GlobalFitResult };
+  "validation-run": { input: { referenceDir?: string }; output: ValidationReport };
   "parse-export": {
     input: { bytes: Uint8Array; fileName: string; parser?: string; timeColumn?: string };
     output: { parsed: ParsedExport | null; error: { message: string; reason: string; line?: number } | null; ranking: Array<{ name: string; confidence: number }> };
@@ -14,9 +19,10 @@ export interface JobTypes {
 export type JobKind = keyof JobTypes;
 
 
-export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"]) => JobTypes[K]["output"] } = {
+export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"], progress: Progress) => JobTypes[K]["output"] } = {
   "fit-series": ({ t, y, options }) => fitSeriesWithOptions(t, y, options),
   "global-fit": ({ model, runs, form }) => fitGlobal(model, runs, form),
+  "validation-run": ({ referenceDir }, progress) => runValidation({ referenceDir, onProgress: (done, total, id) => progress(done, total, id) }),
   "parse-export": ({ bytes, fileName, parser, timeColumn }) => {
     const ranking = rankParsers(bytes, fileName).map((r) => ({ name: r.parser.name, confidence: r.confidence }));
     const r = parseExport(bytes, fileName, parser, { timeColumn });

@@ -4,7 +4,7 @@ import { WORK, type JobKind } from "./work";
 
 parentPort!.on("message", (m: { id: number; kind: JobKind; input: never }) => {
   try {
-    const output = WORK[m.kind](m.input);
+    const output = WORK[m.kind](m.input, (done, total, note) => parentPort!.postMessage({ id: m.id, progress: { done, total, note } }));
     parentPort!.postMessage({ id: m.id, ok: true, output });
   } catch (e) {
     const err = e as Error & { code?: string; line?: number; reason?: string };

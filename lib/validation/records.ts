@@ -7,10 +7,10 @@ import { recordAudit } from "@/lib/audit";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { AppError } from "@/lib/errors";
 import { checkPassword } from "@/lib/reviews";
-import { runValidation, type ValidationReport } from "./index";
+import type { ValidationReport } from "./index";
 
-export async function runAndStoreValidation(db: Knex, user: SignedInUser) {
-  const report = runValidation();
+/** Stores a finished validation report as a record of the lab, audited as run by the user who asked for it. */
+export async function storeValidationReport(db: Knex, user: { labId: number; userId: number }, report: ValidationReport) {
   const json = JSON.stringify(report);
   const hash = createHash("sha256").update(json).digest("hex");
   return db.transaction(async (trx) => {

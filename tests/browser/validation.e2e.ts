@@ -22,17 +22,25 @@ afterAll(async () => {
 });
 
 describe("validation", () => {
-  it("runs every case with progress, lists them, signs and downloads the PDF", async () => {
+  it("queues a run, shows its progress as it goes, lists every case, signs and downloads the PDF", async () => {
     await page.goto(`${baseURL}/admin/validation`);
+    const before = await page.getByTestId("validation-summary").textContent().catch(() => null);
     await page.evaluate(() => {
-      (window as unknown as { sawProgress: boolean }).sawProgress = false;
+      const w = window as unknown as { progressSeen: string[] };
+      w.progressSeen = [];
       new MutationObserver(() => {
-        if (document.querySelector('[data-testid="validation-progress"]')) (window as unknown as { sawProgress: boolean }).sawProgress = true;
-      }).observe(document.body, { subtree: true, childList: true });
+        const t = document.querySelector('[data-testid="validation-progress-text"]')?.textContent;
+        if (t && w.progressSeen.at(-1) !== t) w.progressSeen.push(t);
+      }).observe(document.body, { subtree: true, childList: true, characterData: true });
     });
     await page.getByTestId("run-validation").click();
-    await page.getByTestId("validation-summary").waitFor({ timeout: 60_000 });
-    expect(await page.evaluate(() => (window as unknown as { sawProgress: boolean }).sawProgress)).toBe(true);
+    await page.waitForFunction((b) => {
+      const s = document.querySelector('[data-testid="validation-summary"]')?.textContent;
+      return s && s !== b && !document.querySelector('[data-testid="validation-progress"]');
+    }, before, { timeout: 120_000 });
+    // The page showed the run's own count as it went (the job's progress, polled), not only a spinner.
+    const seen = await page.evaluate(() => (window as unknown as { progressSeen: string[] }).progressSeen);
+    expect(seen.some((t) => /^Reference problem \d+ of \d+/.test(t))).toBe(true);
     await expect(page.getByTestId("validation-summary").textContent()).resolves.toMatch(/\d{3} passed, 0 failed/);
     expect(await page.getByTestId("validation-cases").locator("tr").count()).toBeGreaterThan(250);
     await page.getByLabel("Your password, to sign").fill(admin.password);

@@ -11,6 +11,8 @@ import { signInWithPassword } from "@/lib/auth/sign-in";
 import { ingestExport } from "@/lib/ingest";
 import { saveFit } from "@/lib/fits";
 import { createStudy } from "@/lib/studies";
+import { runValidation } from "@/lib/validation";
+import { storeValidationReport } from "@/lib/validation/records";
 import { can, ROLES, type Permission, type Role } from "@/lib/permissions";
 import { freshDb } from "../helpers/db";
 
@@ -136,7 +138,9 @@ const ROUTES: Record<string, RouteCase> = {
   "app/api/share/[token]/route.ts": { methods: { GET: { permission: "self:read", url: "/api/share/x", params: { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" }, ok: [404] } } },
   "app/api/fits/[id]/audit/route.ts": { methods: { GET: { permission: "fit:read", url: "/api/fits/1/audit", params: { id: "1" } } } },
   "app/api/validation/route.ts": {
-    methods: { GET: { permission: "validation:run", url: "/api/validation" }, POST: { permission: "validation:run", url: "/api/validation", ok: [201] } },
+    methods: { GET: { permission: "validation:run", url: "/api/validation" }, POST: { permission: "validation:run", url: "/api/validation", ok: [202] } },
+  },
+  "app/api/jobs/[id]/route.ts": { methods: { GET: { permission: "validation:run", url: "/api/jobs/1", params: { id: "1" } } },
   },
   "app/api/validation/[id]/route.ts": { methods: { GET: { permission: "validation:run", url: "/api/validation/1", params: { id: "1" } } } },
   "app/api/validation/[id]/sign/route.ts": {
@@ -170,6 +174,8 @@ beforeAll(async () => {
   await ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes: new Uint8Array(fs.readFileSync("parsers/delimited/fixtures/cv-tab-mmss.txt")), fileName: "cv-tab-mmss.txt" });
   await saveFit(db, analyst, { runId: 1, seriesId: 1, title: "First", options: { models: ["linearized", "first-order"] } });
   await saveFit(db, analyst, { runId: 1, seriesId: 1, title: "Second", options: { models: ["first-order"], fixed: { ainf: 0.04 } } });
+  // A stored validation report for its read and sign routes (the POST case only queues a run).
+  await storeValidationReport(db, users.get("admin")!, runValidation());
   await createStudy(db, analyst, { name: "Seed study", kind: "temperature", members: [{ fitId: 1, temperature_c: 25, temperature_reason: "seed" }, { fitId: 2, temperature_c: 35, temperature_reason: "seed" }], options: { weighted: true } });
 });
 afterAll(() => db.destroy());
