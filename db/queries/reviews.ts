@@ -1,4 +1,6 @@
 // Signatures, review events and comments on record versions.
+import { z } from "zod";
+import { readJson } from "@/db/json";
 import { insertedId } from "./ids";
 import type { Db } from "@/db";
 import type { DbCommentRow, DbReviewEventRow, DbSignatureRow } from "@/db/tables";
@@ -50,6 +52,19 @@ export async function submittedFits(db: Db, labId: number) {
     .join("runs as r", "r.id", "f.run_id")
     .orderBy("e.at", "asc")
     .select("f.id", "f.title", "f.version", "f.k_value", "f.k_se", "f.author_id", "r.name as run_name", "e.at as submitted_at", "u.display_name as submitted_by");
+}
+
+/** Study versions whose latest review event is "submitted", oldest first, in the queue's shape. */
+export async function submittedStudies(db: Db, labId: number) {
+  const latest = db("review_events").where({ lab_id: labId, object_type: "study" }).groupBy("object_id").max({ id: "id" });
+  const rows: Array<{ id: number; title: string; version: number; author_id: number | null; members: string; submitted_at: string; submitted_by: string }> = await db("review_events as e")
+    .whereIn("e.id", latest)
+    .andWhere("e.state", "submitted")
+    .join("studies as s", "s.id", "e.object_id")
+    .join("users as u", "u.id", "e.actor_id")
+    .orderBy("e.at", "asc")
+    .select("s.id", "s.name as title", "s.version", "s.author_id", "s.members", "e.at as submitted_at", "u.display_name as submitted_by");
+  return rows.map(({ members, ...r }) => ({ ...r, k_value: null, k_se: null, run_name: `${readJson(z.array(z.unknown()), members, `members of study ${r.id}`).length} fits` }));
 }
 
 /**

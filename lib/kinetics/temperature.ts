@@ -214,6 +214,15 @@ export function arrheniusBand(points: readonly RatePoint[], temperaturesK: reado
   });
 }
 
+/**
+ * The Eyring line's 95 % confidence band: the same weighted regression as Arrhenius, on ln(k/T) (k/T keeps k's relative
+ * SE, so the weights are the same).
+ */
+export function eyringBand(points: readonly RatePoint[], temperaturesK: readonly number[]): Array<{ temperatureK: number; lnKOverT: number; low: number; high: number }> {
+  const shifted = points.map((p) => ({ temperatureK: p.temperatureK, k: p.k / p.temperatureK, se: p.se == null ? null : p.se / p.temperatureK }));
+  return arrheniusBand(shifted, temperaturesK).map((b) => ({ temperatureK: b.temperatureK, lnKOverT: b.lnK, low: b.low, high: b.high }));
+}
+
 /** ln(k/T) on the Eyring line at a temperature (K): ln(kB/h) + ΔS‡/R − ΔH‡/(R·T), for plots and reports. */
 export function eyringLine(eyring: { dH: { value: number }; dS: { value: number } }, temperatureK: number): number {
   return LN_KB_OVER_H + eyring.dS.value / GAS_R - eyring.dH.value / (GAS_R * temperatureK);

@@ -29,6 +29,10 @@ export interface Panel {
   line: Array<[number, number]>;
   /** A horizontal reference line (zero for residuals), in scene coordinates. */
   rule: number | null;
+  /** Vertical error bars (x, low y, high y), in scene coordinates. */
+  bars?: Array<[number, number, number]>;
+  /** A shaded band (x, upper y, lower y) along the line, in scene coordinates. */
+  band?: Array<[number, number, number]>;
 }
 
 export interface PlotScene {
@@ -50,7 +54,8 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   }
   const raw = (hi - lo) / Math.max(1, count);
   const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw)!;
+  // A step a rounding error above 1, 2 or 5 × 10ⁿ still takes that step (0.5 / 5 may come out as 0.10000000000000002).
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw * (1 - 1e-9))!;
   const out: number[] = [];
   for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
   return out;
@@ -62,14 +67,15 @@ function tickLabel(v: number, step: number): string {
   return v.toFixed(Math.min(decimals, 6)).replace("-", "−");
 }
 
-function ticks(lo: number, hi: number, count: number): { values: number[]; ticks: (map: (v: number) => number) => Tick[]; lo: number; hi: number } {
+export function ticks(lo: number, hi: number, count: number): { values: number[]; ticks: (map: (v: number) => number) => Tick[]; lo: number; hi: number } {
   const first = niceTicks(lo, hi, count);
   const step = first.length > 1 ? first[1]! - first[0]! : Math.abs(hi - lo) || 1;
   // The axis runs from tick to tick, so no point sits on the frame.
   const a = Math.floor(lo / step + 1e-9) * step,
     b = Math.ceil(hi / step - 1e-9) * step;
   const values = niceTicks(a, b === a ? a + step : b, Math.round((b - a) / step) || 1);
-  return { values, lo: values[0] ?? a, hi: values.at(-1) ?? b, ticks: (map) => values.map((v) => ({ at: map(v), label: tickLabel(v, step) })) };
+  // The frame spans every point even if a tick falls a rounding error inside it.
+  return { values, lo: Math.min(values[0] ?? a, a), hi: Math.max(values.at(-1) ?? b, b), ticks: (map) => values.map((v) => ({ at: map(v), label: tickLabel(v, step) })) };
 }
 
 /** Per pixel column, the first, lowest and highest point (and every point when there are few). */
@@ -247,6 +253,8 @@ export function sceneToSvg(scene: PlotScene, title: string): string {
     parts.push(`<text transform="translate(${f(p.x - 62)} ${f(p.y + p.h / 2)}) rotate(-90)" text-anchor="middle" fill="#1b2230">${esc(p.yLabel)}</text>`);
     if (p.xLabel) parts.push(`<text x="${f(p.x + p.w / 2)}" y="${f(p.y + p.h + 36)}" text-anchor="middle" fill="#1b2230">${esc(p.xLabel)}</text>`);
     if (p.rule !== null) parts.push(`<line x1="${f(p.x)}" x2="${f(p.x + p.w)}" y1="${f(p.rule)}" y2="${f(p.rule)}" stroke="#5d687c" stroke-width="0.8" stroke-dasharray="4 3"/>`);
+    if (p.band && p.band.length > 1) parts.push(`<polygon points="${[...p.band.map(([x, hi]) => `${f(x)},${f(hi)}`), ...[...p.band].reverse().map(([x, , lo]) => `${f(x)},${f(lo)}`)].join(" ")}" fill="#1a8a94" fill-opacity="0.18" stroke="none"/>`);
+    for (const [x, lo, hi] of p.bars ?? []) parts.push(`<path d="M${f(x)} ${f(lo)}V${f(hi)}M${f(x - 4)} ${f(lo)}h8M${f(x - 4)} ${f(hi)}h8" stroke="#2b50c8" stroke-width="1.2" fill="none"/>`);
     if (p.line.length > 1) parts.push(`<polyline points="${p.line.map(([x, y]) => `${f(x)},${f(y)}`).join(" ")}" fill="none" stroke="#d55e00" stroke-width="1.8"/>`);
     const many = p.points.length > 400;
     const dots = p.points.filter((q) => !q.outside).map((q) => `M${f(q.x)} ${f(q.y)}h0`).join("");
@@ -299,6 +307,16 @@ export function drawSceneOnPdf(doc: PdfSurface, scene: PlotScene, x0: number, y0
     doc.text(printable(p.yLabel), X(p.x) - 50 - 60, Y(p.y + p.h / 2) - 12, { width: 120, align: "center", lineBreak: false });
     doc.restore();
     if (p.rule !== null) doc.lineWidth(0.5).strokeColor("#5d687c").dash(3, { space: 2 }).moveTo(X(p.x), Y(p.rule)).lineTo(X(p.x + p.w), Y(p.rule)).stroke().undash();
+    if (p.band && p.band.length > 1) {
+      doc.save().fillColor("#c9e6e8").moveTo(X(p.band[0]![0]), Y(p.band[0]![1]));
+      for (const [x, hi] of p.band.slice(1)) doc.lineTo(X(x), Y(hi));
+      for (const [x, , lo] of [...p.band].reverse()) doc.lineTo(X(x), Y(lo));
+      doc.fill().restore();
+    }
+    for (const [x, lo, hi] of p.bars ?? []) {
+      doc.lineWidth(0.7).strokeColor("#2b50c8").moveTo(X(x), Y(lo)).lineTo(X(x), Y(hi)).stroke();
+      doc.moveTo(X(x) - 2.5, Y(lo)).lineTo(X(x) + 2.5, Y(lo)).stroke().moveTo(X(x) - 2.5, Y(hi)).lineTo(X(x) + 2.5, Y(hi)).stroke();
+    }
     if (p.line.length > 1) {
       doc.lineWidth(1.1).strokeColor("#d55e00").moveTo(X(p.line[0]![0]), Y(p.line[0]![1]));
       for (const [x, y] of p.line.slice(1)) doc.lineTo(X(x), Y(y));

@@ -152,6 +152,25 @@ const ROUTES: Record<string, RouteCase> = {
   "app/api/admin/integrity/route.ts": { methods: { POST: { permission: "audit:read", url: "/api/admin/integrity", json: {} } } },
   "app/api/studies/[id]/results/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/results", params: { id: "1" } } } },
   "app/api/studies/[id]/export/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/export", params: { id: "1" } } } },
+  "app/api/studies/[id]/review/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/review", params: { id: "1" } } } },
+  "app/api/studies/[id]/submit/route.ts": {
+    methods: { POST: { permission: "study:write", url: "/api/studies/1/submit", params: { id: "1" }, json: (r: Role | null) => ({ password: passwordOf(r) }), ok: [200, 409] } },
+  },
+  // Study 1 is superseded by the matrix's own change above, so its submission and decision meet the record's rule (409);
+  // the study review flow itself is tested in reviews.test.ts.
+  "app/api/studies/[id]/decision/route.ts": {
+    methods: { POST: { permission: "review:decide", url: "/api/studies/1/decision", params: { id: "1" }, json: (r: Role | null) => ({ decision: "approved", password: passwordOf(r) }), ok: [200, 409] } },
+  },
+  "app/api/studies/[id]/withdraw/route.ts": {
+    methods: { POST: { permission: "study:write", url: "/api/studies/1/withdraw", params: { id: "1" }, json: { reason: "matrix test" }, ok: [403, 409] } },
+  },
+  "app/api/studies/[id]/comments/route.ts": {
+    methods: {
+      GET: { permission: "study:read", url: "/api/studies/1/comments", params: { id: "1" } },
+      POST: { permission: "study:read", url: "/api/studies/1/comments", params: { id: "1" }, json: { body: "matrix comment" }, ok: [201] },
+    },
+  },
+  "app/api/studies/[id]/report/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/report", params: { id: "1" } } } },
 };
 
 function routeFiles(dir = "app/api"): string[] {
