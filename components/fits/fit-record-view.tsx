@@ -99,7 +99,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
       {rec.results.method_evaluation && <MethodVerdict ev={rec.results.method_evaluation} linked={!outside} />}
       {user && (
         <div className="mb-6 space-y-6">
-          <ReviewPanel fitId={rec.id} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
+          <ReviewPanel record={{ type: "fit", id: rec.id }} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
           {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
         </div>
       )}

@@ -14,10 +14,11 @@ import type { ReviewStatus } from "@/lib/reviews";
 type Act = "submit" | "approve" | "reject" | "withdraw" | null;
 const TONE = { draft: "neutral", submitted: "accent", approved: "pass", rejected: "fault", withdrawn: "caution" } as const;
 
-export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: number; isAuthor: boolean; mayDecide: boolean; maySubmit: boolean }) {
+export function ReviewPanel({ record, isAuthor, mayDecide, maySubmit }: { record: { type: "fit" | "study"; id: number }; isAuthor: boolean; mayDecide: boolean; maySubmit: boolean }) {
   const toast = useToast();
-  const status = useSWR<ReviewStatus>(`/api/fits/${fitId}/review`, fetcher);
-  const comments = useSWR<{ comments: Array<{ id: number; author: string; body: string; created_at: string }> }>(`/api/fits/${fitId}/comments`, fetcher);
+  const base = `/api/${record.type === "fit" ? "fits" : "studies"}/${record.id}`;
+  const status = useSWR<ReviewStatus>(`${base}/review`, fetcher);
+  const comments = useSWR<{ comments: Array<{ id: number; author: string; body: string; created_at: string }> }>(`${base}/comments`, fetcher);
   const [act, setAct] = useState<Act>(null);
   const [password, setPassword] = useState("");
   const [reason, setReason] = useState("");
@@ -31,9 +32,17 @@ export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: 
 
   async function send(url: string, body: unknown, done: string) {
     setBusy(true);
-    const res = await fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-    const out = await res.json();
-    setBusy(false);
+    let res: Response;
+    let out: { error?: { message?: string } };
+    try {
+      res = await fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+      out = await res.json();
+    } catch {
+      toast("The server could not be reached; nothing was signed or saved. Try again.", "fault");
+      return false;
+    } finally {
+      setBusy(false);
+    }
     if (!res.ok) {
       toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
       return false;
@@ -46,12 +55,12 @@ export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: 
   async function confirm() {
     const ok =
       act === "submit"
-        ? await send(`/api/fits/${fitId}/submit`, { password }, "Submitted for review, signed.")
+        ? await send(`${base}/submit`, { password }, "Submitted for review, signed.")
         : act === "approve"
-          ? await send(`/api/fits/${fitId}/decision`, { decision: "approved", password, meaning }, "Approved, signed.")
+          ? await send(`${base}/decision`, { decision: "approved", password, meaning }, "Approved, signed.")
           : act === "reject"
-            ? await send(`/api/fits/${fitId}/decision`, { decision: "rejected", password, reason, meaning: "reviewed" }, "Rejected, signed.")
-            : await send(`/api/fits/${fitId}/withdraw`, { reason }, "Submission withdrawn.");
+            ? await send(`${base}/decision`, { decision: "rejected", password, reason, meaning: "reviewed" }, "Rejected, signed.")
+            : await send(`${base}/withdraw`, { reason }, "Submission withdrawn.");
     if (ok) {
       setAct(null);
       setPassword("");
@@ -135,7 +144,7 @@ export function ReviewPanel({ fitId, isAuthor, mayDecide, maySubmit }: { fitId: 
           className="mt-2 flex flex-wrap items-end gap-2"
           onSubmit={async (e) => {
             e.preventDefault();
-            if (comment.trim() && (await send(`/api/fits/${fitId}/comments`, { body: comment }, "Comment added."))) setComment("");
+            if (comment.trim() && (await send(`${base}/comments`, { body: comment }, "Comment added."))) setComment("");
           }}
         >
           <div className="min-w-0 flex-1 basis-56">

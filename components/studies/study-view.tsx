@@ -5,13 +5,14 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { Plot } from "@/components/plot/plot";
+import { ReviewPanel } from "@/components/reviews/review-panel";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { formatNumber, formatSeconds, formatWithUncertainty, superscript } from "@/lib/format/number";
 import { KELVIN_OFFSET } from "@/lib/kinetics/constants";
 import { halfLife, t90 } from "@/lib/kinetics/quantities";
-import { celsiusToKelvin, eyringLine, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
+import { celsiusToKelvin, eyringBand, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
 import type { StudyGlobal, StudyRecord } from "@/lib/studies";
 import { GlobalFitSection } from "./global-fit";
 
@@ -36,7 +37,19 @@ type TempResults = {
 
 const kj = (v: number | null | undefined) => (v == null ? null : v / 1000);
 
-export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; canWrite: boolean; demoNote: boolean }) {
+export function StudyView({
+  study,
+  canWrite,
+  demoNote,
+  candidates,
+  review,
+}: {
+  study: StudyRecord;
+  canWrite: boolean;
+  demoNote: boolean;
+  candidates: Array<{ id: number; label: string }>;
+  review: { isAuthor: boolean; mayDecide: boolean; maySubmit: boolean };
+}) {
   const router = useRouter();
   const toast = useToast();
   const isNewest = study.newest_id === study.id;
@@ -69,6 +82,9 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
         <h1 className="text-2xl font-semibold">{study.name}</h1>
         <p className="num mt-4 font-mono text-2xl">k2 = {formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹</p>
         <p className="text-sm text-ink-500">Intercept {formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ (a solvent or reverse path); r² {r.r2.toFixed(5)}.</p>
+        <div className="mt-6">
+          <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
+        </div>
       </div>
     );
   }
@@ -78,7 +94,8 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
 
   async function saveChange() {
     setBusy(true);
-    const addId = Number(added);
+    // The picked fit by its label (or a number typed directly).
+    const addId = candidates.find((c) => c.label === added)?.id ?? Number(added);
     const body = {
       reason: why,
       name,
@@ -101,6 +118,17 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
   }
 
   const lnk = members.map((m) => Math.log(m.k));
+  // The Eyring line's band from the same regression on ln(k/T) (its ΔH‡ and ΔS‡ are the stored results).
+  const eyBand = (() => {
+    if (members.length < 3) return [];
+    const lo = Math.min(...members.map((m) => m.T)) - 5,
+      hi = Math.max(...members.map((m) => m.T)) + 5;
+    try {
+      return eyringBand(members.map((m) => ({ temperatureK: m.T, k: m.k, se: r.weighted ? m.se : null })), Array.from({ length: 41 }, (_, i) => lo + ((hi - lo) * i) / 40));
+    } catch {
+      return [];
+    }
+  })();
   const err = members.map((m) => (m.se ? m.se / m.k : 0));
   return (
     <div className="space-y-6">
@@ -112,9 +140,14 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
           </p>
           {demoNote && <p className="mt-1 text-sm text-ink-500">Demo lab: these invented runs were generated with Ea = 82 kJ mol⁻¹, so the study shows the method recovering a known value.</p>}
         </div>
-        <a href={`/api/studies/${study.id}/export`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold">
-          Study CSV
-        </a>
+        <div className="flex gap-2">
+          <a href={`/api/studies/${study.id}/report`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" data-testid="study-pdf">
+            PDF report
+          </a>
+          <a href={`/api/studies/${study.id}/export`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold">
+            Study CSV
+          </a>
+        </div>
       </header>
       {!isNewest && (
         <p className="rounded-cell bg-caution-100 px-4 py-2 text-sm text-caution-700">
@@ -176,21 +209,17 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
             label="Eyring plot: ln(k/T) against 1000/T"
             height={300}
             data={[
-              { type: "scatter", mode: "markers", name: "ln(k/T)", x: members.map((m) => x(m.T)), y: members.map((m) => Math.log(m.k / m.T)), marker: { size: 8, color: "#7b2d8e" } },
-              {
-                type: "scatter",
-                mode: "lines",
-                name: "line",
-                x: [x(Math.max(...members.map((m) => m.T))), x(Math.min(...members.map((m) => m.T)))],
-                y: [Math.max(...members.map((m) => m.T)), Math.min(...members.map((m) => m.T))].map((T) => eyringLine(r.eyring, T)),
-                line: { color: "#d55e00" },
-              },
+              { type: "scatter", mode: "lines", name: "95 % band", x: eyBand.map((b) => x(b.temperatureK)), y: eyBand.map((b) => b.high), line: { width: 0 }, showlegend: false, hoverinfo: "skip" },
+              { type: "scatter", mode: "lines", name: "95 % confidence band", x: eyBand.map((b) => x(b.temperatureK)), y: eyBand.map((b) => b.low), fill: "tonexty", fillcolor: "rgba(26,138,148,0.18)", line: { width: 0 } },
+              { type: "scatter", mode: "lines", name: r.weighted ? "weighted line" : "line", x: eyBand.map((b) => x(b.temperatureK)), y: eyBand.map((b) => b.lnKOverT), line: { color: "#d55e00" } },
+              { type: "scatter", mode: "markers", name: "ln(k/T) ± SE", x: members.map((m) => x(m.T)), y: members.map((m) => Math.log(m.k / m.T)), error_y: { type: "data", array: err, visible: true }, marker: { size: 8, color: "#7b2d8e" } },
             ] as never}
             layout={{ xaxis: { title: { text: "1000 / T (K⁻¹)" } }, yaxis: { title: { text: "ln (k/T)" } } } as never}
           />
         </div>
       </section>
       <GlobalFitSection g={r.global} twoStage={r.ea} />
+      <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
       <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Prediction">
         <h2 className="mb-3 text-lg font-semibold">Prediction at a temperature</h2>
         <div className="flex flex-wrap items-end gap-4">
@@ -278,8 +307,13 @@ export function StudyView({ study, canWrite, demoNote }: { study: StudyRecord; c
             <div className="w-72">
               <Input label="Study name" value={name} onChange={(e) => setName(e.target.value)} />
             </div>
-            <div className="w-40">
-              <Input label="Add a fit (its number)" inputMode="numeric" value={added} onChange={(e) => setAdded(e.target.value)} hint="From the Fits list." />
+            <div className="w-96 max-w-full">
+              <Input label="Add a fit" list="study-fit-choices" value={added} onChange={(e) => setAdded(e.target.value)} hint="Type part of its title, run or temperature and pick it." />
+              <datalist id="study-fit-choices">
+                {candidates.map((c) => (
+                  <option key={c.id} value={c.label} />
+                ))}
+              </datalist>
             </div>
             <div className="w-96">
               <Input label="Why this new version (required)" value={why} onChange={(e) => setWhy(e.target.value)} />

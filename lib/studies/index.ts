@@ -294,6 +294,7 @@ export async function getStudyRecord(db: Knex, labId: number, id: number) {
     content_hash: s.content_hash,
     reason: s.reason,
     author: s.author_name,
+    author_id: s.author_id,
     created_at: s.created_at,
     versions: versions.map((v) => ({ id: v.id, version: v.version, reason: v.reason, author: v.author_name, created_at: v.created_at })),
     newest_id: versions.at(-1)!.id,

@@ -1,5 +1,8 @@
 // A temperature study as a stability chemist builds one: from the demo fits, see Ea with its CI and both plots, predict
-// t90 at 25 °C with the caution, correct one member's temperature with a reason and get a new version.
+// t90 at 25 °C with the caution, correct one member's temperature with a reason and get a new version; then submit it
+// for review (signed), and a reviewer finds it in the queue, approves it with a signature and exports its PDF.
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Page } from "playwright-core";
@@ -8,11 +11,13 @@ import { signedInPage } from "./chromium";
 
 const baseURL = inject("baseURL");
 const artifacts = inject("artifacts");
+const developer = DEMO_USERS.find((u) => u.role === "method_developer")!;
+const reviewer = DEMO_USERS.find((u) => u.role === "reviewer")!;
 let close: () => Promise<void>;
 let page: Page;
 
 beforeAll(async () => {
-  ({ page, close } = await signedInPage(baseURL, DEMO_USERS.find((u) => u.role === "method_developer")!));
+  ({ page, close } = await signedInPage(baseURL, developer));
 });
 afterAll(async () => {
   await close();
@@ -46,5 +51,44 @@ describe("temperature study", () => {
     await page.getByText("Version 2 of 2").waitFor();
     await expect(page.getByTestId("study-versions").textContent()).resolves.toMatch(/Version 2.*temperature correction from the calibration certificate/s);
     await page.getByText("block probe calibrated: 30.6 °C").waitFor();
+  });
+
+  it("the author submits the newest version (signed); the reviewer approves it from the queue with a signature and exports the PDF", async () => {
+    // The page left by the first test: version 2 of the study, by this method developer.
+    await page.getByTestId("submit-review").click();
+    await page.getByLabel("Your password").fill(developer.password);
+    await page.getByTestId("sign").click();
+    await expect.poll(() => page.getByTestId("review-state").textContent()).toBe("submitted");
+    const studyUrl = page.url();
+
+    const { page: r, close: closeReviewer } = await signedInPage(baseURL, reviewer);
+    try {
+      await r.goto(`${baseURL}/reviews`);
+      const row = r.getByRole("row", { name: /study\s*Four temperatures, built in the browser/ });
+      await row.waitFor();
+      await row.getByRole("link", { name: "Four temperatures, built in the browser" }).click();
+      await r.waitForURL(studyUrl);
+      await r.getByTestId("approve").click();
+      await r.getByLabel("Your password").fill(reviewer.password);
+      await r.getByTestId("sign").click();
+      await expect.poll(() => r.getByTestId("review-state").textContent()).toBe("approved");
+      await expect.poll(() => r.getByTestId("signatures").textContent()).toMatch(/Teodor Vale · authored.*Rafe Okonkwo · approved/is);
+      await r.screenshot({ path: path.join(artifacts, "study-approved.png"), fullPage: true });
+
+      const href = await r.getByTestId("study-pdf").getAttribute("href");
+      const pdf = await r.request.get(`${baseURL}${href}`);
+      expect(pdf.status()).toBe(200);
+      expect(pdf.headers()["content-type"]).toBe("application/pdf");
+      const file = path.join(artifacts, "study-report.pdf");
+      fs.writeFileSync(file, await pdf.body());
+      const text = spawnSync("pdftotext", ["-layout", file, "-"], { encoding: "utf8" });
+      expect(text.status, "pdftotext (Debian's poppler-utils) is needed").toBe(0);
+      expect(text.stdout).toMatch(/Arrhenius plot/);
+      expect(text.stdout).toMatch(/1000 \/ T \(K⁻¹\)/);
+      expect(text.stdout).toMatch(/Rafe Okonkwo · APPROVED/);
+      expect(text.stdout).toMatch(/block probe calibrated: 30\.6 °C/);
+    } finally {
+      await closeReviewer();
+    }
   });
 });

@@ -17,13 +17,13 @@ export default async function ReviewQueuePage() {
     <>
       <PageHeader title="Review queue" lede="Record versions submitted for review, oldest first. You never review your own work." />
       {queue.length === 0 ? (
-        <EmptyState title="Nothing is waiting">Submitted fit records appear here until a reviewer approves or rejects them.</EmptyState>
+        <EmptyState title="Nothing is waiting">Submitted fits and studies appear here until a reviewer approves or rejects them.</EmptyState>
       ) : (
         <Table caption="Records awaiting review">
           <thead>
             <tr>
               <Th>Record</Th>
-              <Th>Run</Th>
+              <Th>Run or members</Th>
               <Th numeric>k (s⁻¹)</Th>
               <Th>Submitted by</Th>
               <Th numeric>Waiting</Th>
@@ -31,16 +31,17 @@ export default async function ReviewQueuePage() {
           </thead>
           <tbody>
             {queue.map((q) => (
-              <tr key={q.id}>
+              <tr key={`${q.object_type}-${q.id}`}>
                 <Td>
-                  <Link className="font-semibold text-quartz-700 hover:underline" href={`/fits/${q.id}`}>
+                  <span className="mr-2 text-xs uppercase tracking-wide text-ink-500">{q.object_type === "fit" ? "fit" : "study"}</span>
+                  <Link className="font-semibold text-quartz-700 hover:underline" href={`/${q.object_type === "fit" ? "fits" : "studies"}/${q.id}`}>
                     {q.title}
                   </Link>{" "}
                   v{q.version}
                   {q.author_id === user.userId && <span className="ml-2 text-xs text-ink-500">(yours: someone else must review it)</span>}
                 </Td>
                 <Td>{q.run_name}</Td>
-                <Td numeric>{formatWithUncertainty(q.k_value, q.k_se)}</Td>
+                <Td numeric>{q.k_value === null ? "—" : formatWithUncertainty(q.k_value, q.k_se)}</Td>
                 <Td>
                   {q.submitted_by}, {String(q.submitted_at).slice(0, 16).replace("T", " ")} UTC
                 </Td>

@@ -6,6 +6,7 @@ import { DEMO_LAB } from "@/db/seeds/demo";
 import { requirePageUser } from "@/lib/auth/page";
 import { AppError } from "@/lib/errors";
 import { can } from "@/lib/permissions";
+import { listFits } from "@/lib/fits";
 import { getStudyRecord } from "@/lib/studies";
 
 export const metadata: Metadata = { title: "Study" };
@@ -17,5 +18,21 @@ export default async function StudyPage({ params }: { params: Promise<{ id: stri
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
   });
-  return <StudyView study={rec} canWrite={can(user, "study:write")} demoNote={user.labSlug === DEMO_LAB.slug} />;
+  const db = await getDb();
+  // The fits that may be added: the lab's saved fits not already in the study, to pick from by name, run or temperature.
+  const inStudy = new Set(rec.members.map((m) => m.fitId));
+  const candidates = can(user, "study:write")
+    ? (await listFits(db, user.labId, { sort: "created_at", dir: "desc", page: 1, pageSize: 200 })).fits
+        .filter((f) => !inStudy.has(f.id) && f.k_value !== null)
+        .map((f) => ({ id: f.id, label: `${f.title} v${f.version} · ${f.run_name} · ${f.temperature_c ?? "?"} °C` }))
+    : [];
+  return (
+    <StudyView
+      study={rec}
+      canWrite={can(user, "study:write")}
+      demoNote={user.labSlug === DEMO_LAB.slug}
+      candidates={candidates}
+      review={{ isAuthor: rec.author_id === user.userId, mayDecide: can(user, "review:decide"), maySubmit: can(user, "study:write") && rec.newest_id === rec.id }}
+    />
+  );
 }
