@@ -1,17 +1,28 @@
-// "All curves fitted together" beside the two-stage result: Ea and kref from one least-squares fit over every member's
-// points (first order, Arrhenius form), their correlation, each run's k and share of the residuals, and whether the two
-// routes agree within their uncertainties.
+// "All curves fitted together" beside the two-stage result: Ea and kref (temperature studies) or k2 (excess series) from
+// one least-squares fit over every member's points, their correlation, each run's k and share of the residuals, and
+// whether the two routes agree within their uncertainties.
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import type { StudyGlobal } from "@/lib/studies";
 
 export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; twoStage: { value: number; se: number | null } }) {
   if (!g) return null;
+  const excess = g.form === "excess";
   return (
     <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="All curves fitted together" data-testid="global-fit">
       <h2 className="text-lg font-semibold">All curves fitted together</h2>
       <p className="mb-3 text-sm text-ink-700">
-        One least-squares fit of every member&apos;s points at once (first order; Ea and k<sub>ref</sub> shared, each run&apos;s a0 and A∞ its own), beside the two-stage route above
-        (each run fitted, then ln k on 1/T). Runs that differ in length, noise and coverage weigh in by their points here.
+        {excess ? (
+          <>
+            One least-squares fit of every member&apos;s points at once (first order, pseudo-first order in the reagent in excess: k<sub>obs</sub> = k2·[B]0 with k2 shared, each run&apos;s a0
+            and A∞ its own), beside the two-stage route above (each run fitted, then k<sub>obs</sub> on [B]0).
+          </>
+        ) : (
+          <>
+            One least-squares fit of every member&apos;s points at once (first order; Ea and k<sub>ref</sub> shared, each run&apos;s a0 and A∞ its own), beside the two-stage route above
+            (each run fitted, then ln k on 1/T).
+          </>
+        )}{" "}
+        Runs that differ in length, noise and coverage weigh in by their points here.
       </p>
       {!g.available ? (
         <p className="rounded-cell bg-caution-100 px-3 py-2 text-sm text-caution-700">Not available for this study: {g.reason}</p>
@@ -20,6 +31,16 @@ export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; 
       ) : (
         <>
           <dl className="grid gap-4 md:grid-cols-3">
+            {excess ? (
+              <div>
+                <dt className="text-sm text-ink-500">k2, all curves together</dt>
+                <dd className="num font-mono text-xl" data-testid="global-k2">
+                  {g.k2?.value == null ? "—" : formatWithUncertainty(g.k2.value, g.k2.se)} L mol⁻¹ s⁻¹
+                </dd>
+                <dd className="text-xs text-ink-500">two-stage: {formatWithUncertainty(twoStage.value, twoStage.se)} L mol⁻¹ s⁻¹</dd>
+              </div>
+            ) : (
+            <>
             <div>
               <dt className="text-sm text-ink-500">Ea, all curves together</dt>
               <dd className="num font-mono text-xl" data-testid="global-ea">
@@ -32,14 +53,16 @@ export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; 
               <dd className="num font-mono text-xl">{g.kref?.value == null ? "—" : formatWithUncertainty(g.kref.value, g.kref.se)} s⁻¹</dd>
               <dd className="text-xs text-ink-500">correlation of Ea and k<sub>ref</sub>: {g.correlation_ea_kref == null ? "—" : g.correlation_ea_kref.toFixed(3)}</dd>
             </div>
+            </>
+            )}
             <div>
               <dt className="text-sm text-ink-500">The two routes</dt>
               <dd className="text-sm" data-testid="global-agreement">
                 {g.agreement?.agree == null
                   ? "Cannot be compared (an uncertainty is missing)."
                   : g.agreement.agree
-                    ? `Agree within their uncertainties (difference ${formatNumber(g.agreement.difference / 1000, 3)} kJ mol⁻¹, ${Math.abs(g.agreement.z!).toFixed(1)} combined SE).`
-                    : `Differ by ${Math.abs(g.agreement.z!).toFixed(1)} combined SE (${formatNumber(g.agreement.difference / 1000, 3)} kJ mol⁻¹): look at the runs below before relying on either.`}
+                    ? `Agree within their uncertainties (difference ${excess ? `${formatNumber(g.agreement.difference, 3)} L mol⁻¹ s⁻¹` : `${formatNumber(g.agreement.difference / 1000, 3)} kJ mol⁻¹`}, ${Math.abs(g.agreement.z!).toFixed(1)} combined SE).`
+                    : `Differ by ${Math.abs(g.agreement.z!).toFixed(1)} combined SE (${excess ? `${formatNumber(g.agreement.difference, 3)} L mol⁻¹ s⁻¹` : `${formatNumber(g.agreement.difference / 1000, 3)} kJ mol⁻¹`}): look at the runs below before relying on either.`}
               </dd>
               <dd className="mt-1 text-xs text-ink-500">
                 {g.n} points, {g.dof} degrees of freedom. {g.message}
@@ -57,7 +80,7 @@ export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; 
               <thead>
                 <tr className="text-left text-ink-700">
                   <th className="border-b border-ink-100 px-2 py-1">Run</th>
-                  <th className="border-b border-ink-100 px-2 py-1 text-right">T (°C)</th>
+                  <th className="border-b border-ink-100 px-2 py-1 text-right">{excess ? "[B]0 (mol L⁻¹)" : "T (°C)"}</th>
                   <th className="border-b border-ink-100 px-2 py-1 text-right">points</th>
                   <th className="border-b border-ink-100 px-2 py-1 text-right">k from the shared law (s⁻¹)</th>
                   <th className="border-b border-ink-100 px-2 py-1 text-right">share of residual SS</th>
@@ -68,7 +91,7 @@ export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; 
                 {(g.runs ?? []).map((r) => (
                   <tr key={r.fit_id}>
                     <td className="border-b border-ink-100 px-2 py-1">{r.run_name}</td>
-                    <td className="num border-b border-ink-100 px-2 py-1 text-right font-mono">{formatNumber(r.temperature_c, 4)}</td>
+                    <td className="num border-b border-ink-100 px-2 py-1 text-right font-mono">{excess ? formatNumber(r.excess_mol_l ?? null, 4) : formatNumber(r.temperature_c, 4)}</td>
                     <td className="num border-b border-ink-100 px-2 py-1 text-right font-mono">{r.n}</td>
                     <td className="num border-b border-ink-100 px-2 py-1 text-right font-mono">{r.k == null ? "—" : formatWithUncertainty(r.k, r.se_k)}</td>
                     <td className="num border-b border-ink-100 px-2 py-1 text-right font-mono">{r.ssr_share == null ? "—" : `${(r.ssr_share * 100).toFixed(1)} %`}</td>

@@ -76,13 +76,14 @@ export function StudyView({
   }, [target, study]);
 
   if (study.kind === "excess") {
-    const r = study.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number };
+    const r = study.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number; global?: StudyGlobal };
     return (
       <div>
         <h1 className="text-2xl font-semibold">{study.name}</h1>
         <p className="num mt-4 font-mono text-2xl">k2 = {formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹</p>
         <p className="text-sm text-ink-500">Intercept {formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ (a solvent or reverse path); r² {r.r2.toFixed(5)}.</p>
-        <div className="mt-6">
+        <div className="mt-6 space-y-6">
+          <GlobalFitSection g={r.global} twoStage={r.k2} />
           <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
         </div>
       </div>

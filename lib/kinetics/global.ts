@@ -6,6 +6,8 @@
 // Arrhenius form: k(T) = kref·exp(−(Ea/R)(1/T − 1/Tref)), Tref near the middle of the temperatures so that Ea and kref
 // are nearly uncorrelated; each run keeps its own a0 and A∞.
 // Shared form: listed parameters (k for replicate runs, say) take one value for all runs.
+// Excess form (pseudo-first order): each run's k_obs = k2·[B]0 with [B]0 from the run's metadata; k2 shared, each run's
+// a0 and A∞ its own.
 import { GAS_R } from "./constants";
 import { runsTest } from "./diagnostics";
 import { levenbergMarquardt, type LsqProblem } from "./lm";
@@ -20,11 +22,13 @@ export interface GlobalRun {
   y: ArrayLike<number>;
   /** Kelvin; needed by the Arrhenius form. */
   temperatureK?: number | null;
+  /** mol/L of the reagent in excess; needed by the excess form. */
+  excessMolL?: number | null;
   /** A weight for every point of the run (1 when not given). */
   weight?: number;
 }
 
-export type GlobalForm = { kind: "arrhenius"; trefK?: number } | { kind: "shared"; shared: readonly string[] };
+export type GlobalForm = { kind: "arrhenius"; trefK?: number } | { kind: "shared"; shared: readonly string[] } | { kind: "excess" };
 
 export interface GlobalEstimate {
   name: string;
@@ -92,7 +96,16 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
 
   let sharedNames: string[];
   let trefK: number | null = null;
-  if (form.kind === "arrhenius") {
+  // Forms in which k is not a parameter but follows from the shared ones (Arrhenius, excess).
+  const derivedK = form.kind === "arrhenius" || form.kind === "excess";
+  if (form.kind === "excess") {
+    if (!mp.includes("k")) throw new GlobalFitError(`The excess form needs a model with a rate constant k; ${modelId} has ${mp.join(", ")}.`);
+    for (const r of runs)
+      if (!(typeof r.excessMolL === "number" && r.excessMolL > 0)) throw new GlobalFitError(`${r.label}: no concentration of the reagent in excess; the excess form needs each run's [B]0.`);
+    const bs = runs.map((r) => r.excessMolL!);
+    if (Math.max(...bs) / Math.min(...bs) < 1.0001) throw new GlobalFitError("The runs share one excess concentration: k2 needs at least two concentrations.");
+    sharedNames = ["k2"];
+  } else if (form.kind === "arrhenius") {
     if (!mp.includes("k")) throw new GlobalFitError(`The Arrhenius form needs a model with a rate constant k; ${modelId} has ${mp.join(", ")}.`);
     for (const r of runs)
       if (!(typeof r.temperatureK === "number" && r.temperatureK > 0)) throw new GlobalFitError(`${r.label}: no temperature; the Arrhenius form needs each run's temperature.`);
@@ -106,7 +119,7 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
     if (form.shared.length === 0) throw new GlobalFitError("Name at least one parameter to share.");
     sharedNames = [...new Set(form.shared)];
   }
-  const own = form.kind === "arrhenius" ? mp.filter((p) => p !== "k") : mp.filter((p) => !sharedNames.includes(p));
+  const own = derivedK ? mp.filter((p) => p !== "k") : mp.filter((p) => !sharedNames.includes(p));
   const S = sharedNames.length;
   const P = S + runs.length * own.length;
   const N = runs.reduce((s, r) => s + r.t.length, 0);
@@ -157,6 +170,15 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
     const slope = sxx > 0 ? sxy / sxx : 0;
     x0[0] = -slope * GAS_R;
     x0[1] = Math.exp(my - slope * mx);
+  } else if (form.kind === "excess") {
+    // k_obs on [B]0 through the origin.
+    let sxy = 0,
+      sxx = 0;
+    runs.forEach((r, i) => {
+      sxy += r.excessMolL! * alone[i]!.k!;
+      sxx += r.excessMolL! ** 2;
+    });
+    x0[0] = Math.max(sxy / sxx, 1e-300);
   } else {
     sharedNames.forEach((s, j) => (x0[j] = alone.reduce((a, v) => a + v[s]!, 0) / alone.length));
   }
@@ -164,22 +186,28 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
 
   const lower = new Array<number>(P).fill(-Infinity);
   if (form.kind === "arrhenius") lower[1] = 0;
+  if (form.kind === "excess") lower[0] = 0;
   runs.forEach((_, i) => mp.forEach((p) => {
-    if (fn.lower[p] !== undefined && !(form.kind === "arrhenius" && p === "k")) lower[col(i, p)] = fn.lower[p]!;
+    if (fn.lower[p] !== undefined && !(derivedK && p === "k")) lower[col(i, p)] = fn.lower[p]!;
   }));
 
-  // The run's model parameters from the global vector, and k's derivatives with respect to Ea and kref.
-  const runParams = (x: Float64Array, i: number, out: Float64Array): { dkdea: number; dkdkref: number } | null => {
+  // The run's model parameters from the global vector, and (where k follows from the shared parameters) k's
+  // derivatives with respect to each shared parameter: Arrhenius (Ea, kref), excess (k2).
+  const runParams = (x: Float64Array, i: number, out: Float64Array): number[] | null => {
     mp.forEach((p, j) => {
-      if (form.kind === "arrhenius" && p === "k") return;
+      if (derivedK && p === "k") return;
       out[j] = x[col(i, p)]!;
     });
+    if (form.kind === "excess") {
+      out[mp.indexOf("k")] = x[0]! * runs[i]!.excessMolL!;
+      return [runs[i]!.excessMolL!];
+    }
     if (form.kind !== "arrhenius") return null;
     const u = 1 / runs[i]!.temperatureK! - 1 / trefK!;
     const e = Math.exp((-x[0]! / GAS_R) * u);
     const k = x[1]! * e;
     out[mp.indexOf("k")] = k;
-    return { dkdea: (-k * u) / GAS_R, dkdkref: e };
+    return [(-k * u) / GAS_R, e];
   };
 
   const pBuf = new Float64Array(mp.length);
@@ -215,11 +243,10 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
         const o = offsets[i]!;
         mp.forEach((p, j) => {
           const src = j * n;
-          if (form.kind === "arrhenius" && p === "k") {
+          if (derivedK && p === "k") {
             for (let q = 0; q < n; q++) {
               const g = sw * Jl[src + q]!;
-              J[0 * N + o + q] = g * d!.dkdea;
-              J[1 * N + o + q] = g * d!.dkdkref;
+              for (let c = 0; c < d!.length; c++) J[c * N + o + q] = g * d![c]!;
             }
             return;
           }
@@ -291,11 +318,18 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
       ssr += r.w * residuals[q]! ** 2;
     }
     let k: { value: number | null; se: number | null };
-    if (form.kind === "arrhenius") {
-      const c00 = cov(0, 0),
-        c01 = cov(0, 1),
-        c11 = cov(1, 1);
-      const v = c00 === null || c01 === null || c11 === null ? null : d!.dkdea ** 2 * c00 + 2 * d!.dkdea * d!.dkdkref * c01 + d!.dkdkref ** 2 * c11;
+    if (derivedK) {
+      // The delta method over the shared parameters: var k = gᵀ C g.
+      let v: number | null = 0;
+      for (let a = 0; a < d!.length && v !== null; a++)
+        for (let b = 0; b < d!.length; b++) {
+          const c = cov(a, b);
+          if (c === null) {
+            v = null;
+            break;
+          }
+          v += d![a]! * d![b]! * c;
+        }
       k = { value: pBuf[mp.indexOf("k")]!, se: v !== null && v >= 0 ? Math.sqrt(v) : null };
     } else {
       const kc = mp.includes("k") ? col(i, "k") : -1;

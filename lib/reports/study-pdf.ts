@@ -78,10 +78,19 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
     );
 
   if (st.kind === "excess") {
-    const r = st.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number };
-    heading("Second-order rate constant");
+    const r = st.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number; global?: StudyGlobal };
+    heading("Second-order rate constant (two-stage: each run fitted, then k_obs on [B]0)");
     line(`k2 = ${formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹`, 14, "bold");
     line(`Intercept ${formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ · r² ${r.r2.toFixed(5)}`, 9);
+    const g = r.global;
+    heading("All curves fitted together (k_obs = k2·[B]0, k2 shared)");
+    if (!g || !g.available) line(g?.reason ? `Not available: ${g.reason}` : "Not computed for this version.", 9);
+    else {
+      line(`k2 = ${formatWithUncertainty(g.k2?.value ?? null, g.k2?.se ?? null)} L mol⁻¹ s⁻¹ · ${g.n} points, ${g.dof} degrees of freedom · ${g.converged ? "converged" : `not converged: ${g.message}`}`, 10, "bold");
+      if (g.agreement) line(`Two-stage minus global k2: ${formatNumber(g.agreement.difference, 3)} L mol⁻¹ s⁻¹${g.agreement.z !== null ? ` (${g.agreement.z.toFixed(2)} combined SE)` : ""}`, 9);
+      for (const run of g.runs ?? []) line(`   ${run.run_name}: [B]0 ${run.excess_mol_l ?? "?"} mol L⁻¹, n ${run.n}, k_obs = ${formatWithUncertainty(run.k, run.se_k)} s⁻¹, share of SSR ${run.ssr_share === null ? "—" : `${(run.ssr_share * 100).toFixed(1)} %`}`, 8);
+      for (const w of g.warnings ?? []) line(w, 9, "bold");
+    }
   } else {
     const r = st.results as unknown as TemperatureResults;
     heading("Two-stage result (each run fitted, then Arrhenius on the rate constants)");

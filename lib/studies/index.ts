@@ -149,56 +149,62 @@ export interface StudyGlobal {
   reason?: string;
   model?: string;
   tref_c?: number;
+  /** Which law the runs share: Arrhenius (temperature studies) or k_obs = k2·[B]0 (excess-concentration series). */
+  form?: "arrhenius" | "excess";
   ea?: { value: number | null; se: number | null; ci95: [number, number] | null };
+  k2?: { value: number | null; se: number | null; ci95: [number, number] | null };
   kref?: { value: number | null; se: number | null };
   correlation_ea_kref?: number | null;
   n?: number;
   dof?: number;
-  runs?: Array<{ fit_id: number; run_name: string; temperature_c: number | null; n: number; k: number | null; se_k: number | null; ssr_share: number | null; runs_z: number | null }>;
+  runs?: Array<{ fit_id: number; run_name: string; temperature_c: number | null; excess_mol_l?: number | null; n: number; k: number | null; se_k: number | null; ssr_share: number | null; runs_z: number | null }>;
   converged?: boolean;
   message?: string;
   warnings?: string[];
-  /** Two-stage Ea minus global Ea, over their combined SE: within 2 they agree within their uncertainties. */
+  /** Two-stage minus global (Ea, or k2), over their combined SE: within 2 they agree within their uncertainties. */
   agreement?: { difference: number; z: number | null; agree: boolean | null };
 }
 
 /**
- * Every member's curve fitted at once (first order, Arrhenius form: Ea and kref shared, each run's a0 and A∞ its own),
- * on the points each member fit used (its window, exclusions and conversion), on a worker thread.
+ * Every member's curve fitted at once, on the points each member fit used (its window, exclusions and conversion), on a
+ * worker thread: first order, each run's a0 and A∞ its own, k following the shared law: Arrhenius (Ea and kref shared)
+ * for temperature studies, k_obs = k2·[B]0 (k2 shared) for excess-concentration series.
  */
-async function globalForStudy(db: Knex, labId: number, members: ResolvedMember[], twoStage: { value: number; se: number | null } | null): Promise<StudyGlobal> {
+async function globalForStudy(db: Knex, labId: number, members: ResolvedMember[], twoStage: { value: number; se: number | null } | null, form: "arrhenius" | "excess"): Promise<StudyGlobal> {
   const runs: GlobalRun[] = [];
   const ids: number[] = [];
   for (const m of members) {
-    if (m.temperature_used_c === null) return { available: false, reason: `${m.run_name} has no temperature.` };
+    if (form === "arrhenius" && m.temperature_used_c === null) return { available: false, reason: `${m.run_name} has no temperature.` };
+    if (form === "excess" && !m.excess_mol_l) return { available: false, reason: `${m.run_name} has no excess concentration.` };
     const f = await getFit(db, labId, m.fitId);
     if (!f) return { available: false, reason: `Fit ${m.fitId} is missing.` };
     const { t, y } = await readSeries(db, labId, f.run_id, f.series_id);
     const pts = includedPoints(t, y, f.options);
-    runs.push({ label: m.run_name, t: pts.t, y: pts.y, temperatureK: celsiusToKelvin(m.temperature_used_c) });
+    runs.push({ label: m.run_name, t: pts.t, y: pts.y, temperatureK: m.temperature_used_c === null ? null : celsiusToKelvin(m.temperature_used_c), excessMolL: m.excess_mol_l ?? null });
     ids.push(m.fitId);
   }
   let g: GlobalFitResult;
   try {
-    g = await runJob("global-fit", { model: PRIMARY_MODEL, runs, form: { kind: "arrhenius" } });
+    g = await runJob("global-fit", { model: PRIMARY_MODEL, runs, form: { kind: form } });
   } catch (e) {
     if (e instanceof GlobalFitError || (e instanceof AppError && e.code === "unprocessable")) return { available: false, reason: e.message };
     throw e;
   }
-  const ea = g.parameters[0]!,
-    kref = g.parameters[1]!;
-  const combined = twoStage?.se !== null && twoStage?.se !== undefined && ea.se !== null ? Math.hypot(twoStage.se, ea.se) : null;
-  const difference = twoStage && ea.value !== null ? twoStage.value - ea.value : NaN;
+  const first = g.parameters[0]!;
+  const combined = twoStage?.se !== null && twoStage?.se !== undefined && first.se !== null ? Math.hypot(twoStage.se, first.se) : null;
+  const difference = twoStage && first.value !== null ? twoStage.value - first.value : NaN;
+  const shared =
+    form === "arrhenius"
+      ? { tref_c: g.tref_k! - KELVIN_OFFSET, ea: { value: first.value, se: first.se, ci95: first.ci95 }, kref: { value: g.parameters[1]!.value, se: g.parameters[1]!.se }, correlation_ea_kref: g.correlation ? g.correlation[0]![1]! : null }
+      : { k2: { value: first.value, se: first.se, ci95: first.ci95 } };
   return {
     available: true,
+    form,
     model: g.model,
-    tref_c: g.tref_k! - KELVIN_OFFSET,
-    ea: { value: ea.value, se: ea.se, ci95: ea.ci95 },
-    kref: { value: kref.value, se: kref.se },
-    correlation_ea_kref: g.correlation ? g.correlation[0]![1]! : null,
+    ...shared,
     n: g.n,
     dof: g.dof,
-    runs: g.runs.map((r, i) => ({ fit_id: ids[i]!, run_name: r.label, temperature_c: r.temperature_k === null ? null : r.temperature_k - KELVIN_OFFSET, n: r.n, k: r.k.value, se_k: r.k.se, ssr_share: r.ssr_share, runs_z: r.runs_z })),
+    runs: g.runs.map((r, i) => ({ fit_id: ids[i]!, run_name: r.label, temperature_c: r.temperature_k === null ? null : r.temperature_k - KELVIN_OFFSET, excess_mol_l: runs[i]!.excessMolL ?? null, n: r.n, k: r.k.value, se_k: r.k.se, ssr_share: r.ssr_share, runs_z: r.runs_z })),
     converged: g.converged,
     message: g.message,
     warnings: g.warnings,
@@ -216,8 +222,10 @@ async function storeVersion(
   // Beside the two-stage route, every curve fitted together (temperature studies over two or more temperatures).
   const results =
     computed.kind === "temperature" && "temperatures" in computed && computed.temperatures >= 2
-      ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.ea) }
-      : computed;
+      ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.ea, "arrhenius") }
+      : computed.kind === "excess" && "k2" in computed
+        ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.k2, "excess") }
+        : computed;
   const contentHash = studyContentHash({ members: resolved, options: input.options, results, engine: ENGINE_VERSION });
   return writeVersion(db, async (trx) => {
     const version = await claimNextVersion(trx, "studies", user.labId, input.previous ?? null);

@@ -2,9 +2,10 @@
 Jacobian, tolerances 1e-15) on the same concatenated first-order problem, read as JSON from stdin; standard errors from
 s^2 (J^T J)^-1 with s^2 = SSR/dof. Runs on Debian's python3-scipy.
 
-Input: {"form": "arrhenius" | "shared", "tref": K (arrhenius), "shared": [names] (shared form),
-        "runs": [{"t": [...], "y": [...], "T": K}], "x0": [...]}
-Parameter order: the shared ones first (arrhenius: ea, kref), then each run's own (a0, ainf[, k]) in run order."""
+Input: {"form": "arrhenius" | "shared" | "excess", "tref": K (arrhenius), "shared": [names] (shared form),
+        "runs": [{"t": [...], "y": [...], "T": K, "B": mol/L (excess)}], "x0": [...]}
+Parameter order: the shared ones first (arrhenius: ea, kref; excess: k2), then each run's own (a0, ainf[, k]) in run
+order. The excess form is pseudo-first order: k_obs = k2 * [B]0."""
 import json
 import sys
 
@@ -16,9 +17,10 @@ P = ["a0", "ainf", "k"]
 
 def solve(spec, method="lm"):
     """The fit; returns the result dict printed by the script."""
-    runs = [(np.asarray(r["t"], float), np.asarray(r["y"], float), r.get("T")) for r in spec["runs"]]
-    shared = ["ea", "kref"] if spec["form"] == "arrhenius" else spec["shared"]
-    own = ["a0", "ainf"] if spec["form"] == "arrhenius" else [p for p in P if p not in shared]
+    runs = [(np.asarray(r["t"], float), np.asarray(r["y"], float), r.get("T") if spec["form"] != "excess" else r["B"]) for r in spec["runs"]]
+    derived = spec["form"] in ("arrhenius", "excess")
+    shared = ["ea", "kref"] if spec["form"] == "arrhenius" else ["k2"] if spec["form"] == "excess" else spec["shared"]
+    own = ["a0", "ainf"] if derived else [p for p in P if p not in shared]
     S, O = len(shared), len(own)
     N = sum(len(t) for t, _, _ in runs)
     tref = spec.get("tref")
@@ -32,6 +34,9 @@ def solve(spec, method="lm"):
             e = np.exp(-x[0] / R * u)
             v["k"] = x[1] * e
             d = (-v["k"] * u / R, e)
+        elif spec["form"] == "excess":
+            v["k"] = x[0] * runs[i][2]
+            d = (runs[i][2],)
         else:
             for j, name in enumerate(shared):
                 v[name] = x[j]
@@ -55,9 +60,9 @@ def solve(spec, method="lm"):
             cols = {"a0": e, "ainf": 1 - e, "k": -(v["a0"] - v["ainf"]) * t * e}
             rows = slice(o, o + len(t))
             for name, g in cols.items():
-                if spec["form"] == "arrhenius" and name == "k":
-                    J[rows, 0] = g * d[0]
-                    J[rows, 1] = g * d[1]
+                if derived and name == "k":
+                    for c, dc in enumerate(d):
+                        J[rows, c] = g * dc
                 elif name in shared:
                     J[rows, shared.index(name)] += g
                 else:

@@ -103,5 +103,11 @@ describe("temperature study", () => {
     const rec = await getStudyRecord(db, analyst.labId, s.id);
     const line = fitLine(excess, rec.members.map((m) => m.k));
     expect((rec.results as { k2: { value: number } }).k2.value).toBeCloseTo(line.slope, 12);
+    // Beside it, every curve fitted together with k_obs = k2·[B]0 (the engine's excess form is checked against scipy in
+    // kinetics/global.test.ts): each run's k follows the shared k2 exactly.
+    const g = (rec.results as { global: StudyGlobal }).global;
+    expect(g).toMatchObject({ available: true, form: "excess", converged: true });
+    expect(g.k2!.se).toBeGreaterThan(0);
+    g.runs!.forEach((r, i) => expect(r.k!).toBeCloseTo(g.k2!.value! * excess[i]!, 12));
   });
 });

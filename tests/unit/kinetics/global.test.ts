@@ -138,6 +138,40 @@ describe("shared parameters (scipy.optimize.least_squares recomputation)", () =>
   });
 });
 
+describe("pseudo-first-order runs sharing k2 (scipy.optimize.least_squares recomputation)", () => {
+  // k_obs = k2·[B]0 at four excess concentrations (generated: k2 = 0.85 L mol⁻¹ s⁻¹).
+  const K2 = 0.85;
+  const B = [1e-3, 2e-3, 3.5e-3, 5e-3];
+  const excessRuns = () => B.map((b, i) => ({ b, ...makeRun(`excess-${i + 1}.csv`, 25, K2 * b, 70 + 10 * i, 51 + i) }));
+
+  it("k2 and every run's a0 and A∞ to 6 significant figures, their SEs to 3; each run's k_obs = k2·[B]0 with its SE", () => {
+    const runs = excessRuns();
+    const out = fitGlobal("first-order", runs.map((r) => ({ label: path.basename(r.file), t: r.t, y: r.y, excessMolL: r.b })), { kind: "excess" });
+    expect(out.converged).toBe(true);
+    expect(out.shared).toEqual(["k2"]);
+    const x = [out.parameters[0]!.value!, ...out.runs.flatMap((r) => r.parameters.map((p) => p.value!))];
+    const se = [out.parameters[0]!.se!, ...out.runs.flatMap((r) => r.parameters.map((p) => p.se!))];
+    const x0 = [K2 * 1.2, ...runs.flatMap((r) => [r.y[0]! * 1.1, r.y.at(-1)! * 0.8])];
+    const ref = runPython<{ x: number[]; se: number[]; ssr: number }>("tests/reference/scipy_global.py", { form: "excess", runs: runs.map((r) => ({ t: r.t, y: r.y, B: r.b })), x0 });
+    ref.x.forEach((v, j) => sig(x[j]!, v, 6));
+    ref.se.forEach((v, j) => sig(se[j]!, v, 3));
+    sig(out.ssr!, ref.ssr, 6);
+    out.runs.forEach((r, i) => {
+      expect(r.k.value).toBeCloseTo(out.parameters[0]!.value! * B[i]!, 15);
+      sig(r.k.se!, out.parameters[0]!.se! * B[i]!, 6);
+    });
+    // The generating k2 within 3 SE (generated data, not a reference value).
+    expect(Math.abs(out.parameters[0]!.value! - K2)).toBeLessThan(3 * out.parameters[0]!.se!);
+  });
+
+  it("a run without its excess concentration, or one concentration for all, is refused with the reason", () => {
+    const runs = excessRuns().map((r) => ({ label: path.basename(r.file), t: r.t, y: r.y, excessMolL: r.b as number | null }));
+    runs[2]!.excessMolL = null;
+    expect(() => fitGlobal("first-order", runs, { kind: "excess" })).toThrow(/excess-3\.csv: no concentration of the reagent in excess/);
+    expect(() => fitGlobal("first-order", runs.map((r) => ({ ...r, excessMolL: 2e-3 })), { kind: "excess" })).toThrow(/share one excess concentration/);
+  });
+});
+
 describe("a run that does not follow the shared law is named", () => {
   it("a run whose k is twice the others' under a shared k gets a warning naming it", () => {
     const odd = makeRun("odd.csv", 30, 2.6e-3, 90, 41);
