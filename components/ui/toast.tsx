@@ -31,6 +31,7 @@ export function ToastProvider({ children }: { children: ReactNode }) {
           <div
             key={t.id}
             role={t.tone === "fault" ? "alert" : "status"}
+            data-testid="toast"
             className={cn(
               "rounded-cell border-l-4 bg-paper-raised px-4 py-3 text-sm shadow-lift",
               t.tone === "pass" && "border-pass-700",

@@ -72,8 +72,8 @@ describe("temperature study", () => {
       await r.getByLabel("Your password").fill(reviewer.password);
       await r.getByTestId("sign").click();
       // Either the state moves or the page says why not (shown in the failure).
-      await r.waitForFunction(() => document.querySelector('[data-testid="review-state"]')?.textContent === "approved" || document.querySelector('[role="alert"]'), null, { timeout: 15_000 });
-      expect(await r.locator('[role="alert"]').allTextContents()).toEqual([]);
+      await r.waitForFunction(() => document.querySelector('[data-testid="review-state"]')?.textContent === "approved" || document.querySelector('[data-testid="toast"][role="alert"]'), null, { timeout: 30_000 });
+      expect(await r.locator('[data-testid="toast"][role="alert"]').allTextContents()).toEqual([]);
       await expect.poll(() => r.getByTestId("review-state").textContent()).toBe("approved");
       await expect.poll(() => r.getByTestId("signatures").textContent()).toMatch(/Teodor Vale · authored.*Rafe Okonkwo · approved/is);
       await r.screenshot({ path: path.join(artifacts, "study-approved.png"), fullPage: true });
