@@ -1,5 +1,6 @@
 // Metadata lines before a table ("key: value", "key;value", "key<TAB>value", "key = value", "# comment"), kept as
-// found, with the numbers every parser recognises: wavelength_nm, path_length_cm, temperature_c, and the time unit.
+// found, with the values every parser recognises: wavelength_nm, path_length_cm, temperature_c, operator, sample, and
+// the time unit.
 import { timeUnitFactor, toCelsius, toCentimetres } from "@/lib/units";
 
 export interface MetadataResult {
@@ -59,6 +60,10 @@ function addKey(out: MetadataResult, key: string, value: string, line: number): 
   } else if (/^time\s*unit|^time\s*base|^x\s*unit/.test(k)) {
     const factor = timeUnitFactor(value);
     if (factor) out.timeUnit = { name: value, factor, line };
+  } else if (/^(operator|analyst|operator name|measured by|user name)$/.test(k) && value) {
+    out.metadata.operator = value.slice(0, 120);
+  } else if (/^(sample|sample id|sample name|sample\/lot|lot|lot no\.?|batch)$/.test(k) && value) {
+    out.metadata.sample = value.slice(0, 120);
   } else if (/^encoding|charset|character set/.test(k)) {
     out.declaredEncoding = { name: value, line };
   }

@@ -2,7 +2,7 @@
 // Upload: drop files, watch each upload's progress, check the preview (first lines, channels plotted, metadata and
 // units found), adjust the mapping, save. Nothing is stored before "Save run".
 import Link from "next/link";
-import { useCallback, useState } from "react";
+import { Fragment, useCallback, useState } from "react";
 import { useDropzone } from "react-dropzone";
 import { Plot } from "@/components/plot/plot";
 import { Badge } from "@/components/ui/badge";
@@ -47,8 +47,23 @@ function initialMapping(p: UploadPreview): RunMapping {
       wavelength_nm: p.suggested.wavelength_nm,
       path_length_cm: p.suggested.path_length_cm,
       temperature_c: p.suggested.temperature_c,
+      operator: p.suggested.operator,
+      sample: p.suggested.sample,
     },
   };
+}
+
+/** The values read from the file's metadata, in words (the keys as the file wrote them are in the raw lines above). */
+const RECOGNISED: Array<[string, string, string]> = [
+  ["wavelength_nm", "wavelength", "nm"],
+  ["path_length_cm", "path length", "cm"],
+  ["temperature_c", "temperature", "°C"],
+  ["operator", "operator", ""],
+  ["sample", "sample", ""],
+];
+function recognised(metadata: Record<string, string | number>): string {
+  const found = RECOGNISED.filter(([k]) => metadata[k] !== undefined).map(([k, label, unit]) => `${label} ${metadata[k]}${unit ? ` ${unit}` : ""}`);
+  return found.length ? found.join(", ") : "nothing";
 }
 
 export function UploadWorkspace({ limits, methods = [] }: { limits: Limits; methods?: MethodChoice[] }) {
@@ -197,13 +212,13 @@ function FileCard({ item, methods, onMapping, onSave, onTimeColumn }: { item: It
               <pre className="max-h-64 overflow-auto rounded-cell bg-paper-sunk p-3 font-mono text-xs leading-5">
                 {p.head.map((h) => (
                   <span key={h.line} className="block">
-                    <span className="mr-3 inline-block w-6 select-none text-right text-ink-300">{h.line}</span>
+                    <span className="mr-3 inline-block w-6 select-none text-right text-ink-500">{h.line}</span>
                     {h.text}
                   </span>
                 ))}
               </pre>
               <p className="mt-2 text-xs text-ink-500">
-                Parser: {p.parser} ({p.parsers.map((x) => `${x.name} ${x.confidence.toFixed(2)}`).join(", ")}). Metadata found: {Object.keys(p.metadata).filter((k) => k !== "comments").join(", ") || "none"}.
+                Parser: {p.parser} ({p.parsers.map((x) => `${x.name} ${x.confidence.toFixed(2)}`).join(", ")}). Read from the file: {recognised(p.metadata)}.
               </p>
             </section>
             <section>
@@ -214,6 +229,33 @@ function FileCard({ item, methods, onMapping, onSave, onTimeColumn }: { item: It
                 data={p.series.map((s, i) => ({ type: "scatter", mode: s.points > 200 ? "lines" : "lines+markers", name: s.name, x: s.t, y: s.y, marker: { size: 4, color: p.series.length === 1 ? base : CHANNEL_PALETTE[i % CHANNEL_PALETTE.length] } }))}
                 layout={{ xaxis: { title: { text: "t (s)" } }, yaxis: { title: { text: p.series[0]?.unit === "AU" ? "A (AU)" : (p.series[0]?.unit ?? "") } } }}
               />
+              <div className="relative mt-3 overflow-x-auto">
+                <table className="text-xs" data-testid="parsed-numbers">
+                  <caption className="mb-1 text-left text-xs text-ink-700">The first readings as they will be stored (time converted to seconds), to check against the lines above.</caption>
+                  <thead>
+                    <tr className="text-left text-ink-700">
+                      {p.series.map((s) => (
+                        <Fragment key={s.name}>
+                          <th className="px-2 text-right font-semibold">t (s)</th>
+                          <th className="px-2 text-right font-semibold">{s.name}</th>
+                        </Fragment>
+                      ))}
+                    </tr>
+                  </thead>
+                  <tbody className="num font-mono">
+                    {Array.from({ length: Math.max(...p.series.map((s) => s.first_t.length)) }, (_, r) => (
+                      <tr key={r}>
+                        {p.series.map((s) => (
+                          <Fragment key={s.name}>
+                            <td className="px-2 text-right">{s.first_t[r] ?? ""}</td>
+                            <td className="px-2 text-right">{s.first_y[r] === undefined ? "" : Number(s.first_y[r]!.toPrecision(6))}</td>
+                          </Fragment>
+                        ))}
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
             </section>
           </div>
           <section aria-label="Mapping">

@@ -90,6 +90,8 @@ export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, 
         skipped_lines: s.skipped_lines,
         t: s.t.filter((_, i) => i % stride === 0),
         y: s.y.filter((_, i) => i % stride === 0),
+        first_t: s.t.slice(0, 8),
+        first_y: s.y.slice(0, 8),
         wavelength_nm: num(s.metadata?.wavelength_nm),
       };
     }),
@@ -100,6 +102,8 @@ export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, 
       wavelength_nm: num(parsed.metadata.wavelength_nm),
       path_length_cm: num(parsed.metadata.path_length_cm),
       temperature_c: num(parsed.metadata.temperature_c),
+      operator: typeof parsed.metadata.operator === "string" ? parsed.metadata.operator : null,
+      sample: typeof parsed.metadata.sample === "string" ? parsed.metadata.sample : null,
     },
   };
 }

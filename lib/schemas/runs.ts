@@ -101,8 +101,9 @@ export interface UploadPreview {
   metadata: Record<string, string | number>;
   warnings: string[];
   columns: Array<{ index: number; header: string; role: "time" | "channel"; unit: string | null }>;
-  series: Array<{ name: string; quantity: string; unit: string; points: number; skipped_lines: number[]; t: number[]; y: number[]; wavelength_nm: number | null }>;
+  /** t and y thinned for the preview plot; first_t and first_y the first readings exactly as read (time in s). */
+  series: Array<{ name: string; quantity: string; unit: string; points: number; skipped_lines: number[]; t: number[]; y: number[]; first_t: number[]; first_y: number[]; wavelength_nm: number | null }>;
   head: Array<{ line: number; text: string }>;
   existing: { run_id: number; name: string; created_at: string } | null;
-  suggested: { name: string; wavelength_nm: number | null; path_length_cm: number | null; temperature_c: number | null };
+  suggested: { name: string; wavelength_nm: number | null; path_length_cm: number | null; temperature_c: number | null; operator: string | null; sample: string | null };
 }

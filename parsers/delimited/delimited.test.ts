@@ -49,6 +49,9 @@ describe("good exports", () => {
     expectCv(r.series[0]!);
     const c2 = r.series[1]!;
     expect(c2.skipped_lines).toEqual([3, 7]);
+    // Each skipped cell named for what it is: the instrument's over-range marker, an empty cell.
+    expect(r.warnings).toContain(`"Cell 2 (A)": 1 over-range marker ("OVER": the reading was beyond the instrument's range) skipped, line 3.`);
+    expect(r.warnings).toContain(`"Cell 2 (A)": 1 empty cell skipped, line 7.`);
     expect(c2.t).toEqual(T.filter((_, i) => i !== 0 && i !== 4));
     expect(r.warnings.join(" ")).toMatch(/clock times of day/);
     expect(r.metadata.temperature_c).toBe(25);

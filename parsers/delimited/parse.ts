@@ -8,6 +8,9 @@ import { decodeText, readNumber, splitLines } from "../text";
 import { ParseError, type ParsedExport, type ParsedSeries, type ParseOptions } from "../types";
 import { classifyTime, timeReader } from "./time";
 
+/** Cells instruments write instead of a reading beyond their range (common practice; no one standard spells them). */
+const OVER_RANGE = /^(over(range|flow)?|over-range|ovr(ng)?|sat(urated)?|high|hi|range|o\.?r\.?|>.*|\*+|\+?inf(inity)?)$/i;
+
 export type Delimiter = "," | ";" | "\t" | "whitespace";
 
 interface Dialect {
@@ -235,6 +238,9 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
   const ys = channels.map(() => [] as number[]);
   const ts = channels.map(() => [] as number[]);
   const skipped = channels.map(() => [] as number[]);
+  // Why each skipped cell was skipped, for the warning: empty, an instrument's over-range marker, a reading of 0 %T or
+  // below, or other text.
+  const why = channels.map(() => ({ empty: [] as number[], over: [] as Array<[number, string]>, nonPositiveT: [] as number[], text: [] as Array<[number, string]> }));
   let prevT = -Infinity;
   let prevLine = 0;
   const maxRows = Math.floor(PARSE_LIMITS.maxPoints / channels.length);
@@ -258,7 +264,14 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
       if (v === "partial") throw new ParseError(`"${h}" holds "${raw}", which is not a number`, line);
       const kind = kinds[q]!;
       const y = kind.percentT ? (v > 0 ? percentTToAbsorbance(v) : NaN) : v;
-      if (Number.isNaN(y)) skipped[q]!.push(line);
+      if (Number.isNaN(y)) {
+        skipped[q]!.push(line);
+        const w = why[q]!;
+        if (raw.trim() === "") w.empty.push(line);
+        else if (OVER_RANGE.test(raw.trim())) w.over.push([line, raw.trim()]);
+        else if (!Number.isNaN(v)) w.nonPositiveT.push(line);
+        else w.text.push([line, raw.trim()]);
+      }
       else {
         ts[q]!.push(tv);
         ys[q]!.push(y);
@@ -272,7 +285,13 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
       throw new ParseError(`the channel "${h}" has no numbers at all`, (headerIdx >= 0 ? headerIdx : first) + 1);
     const wl = h.match(/(\d+(?:[.,]\d+)?)\s*nm\b/i);
     const kind = kinds[q]!;
-    if (kind.percentT && skipped[q]!.length) warnings.push(`"${h}": readings of 0 %T or below have no absorbance and were skipped.`);
+    const w = why[q]!;
+    const lines = (ls: number[]) => `line${ls.length === 1 ? "" : "s"} ${ls.slice(0, 8).join(", ")}${ls.length > 8 ? ", …" : ""}`;
+    if (w.over.length)
+      warnings.push(`"${h}": ${w.over.length} over-range marker${w.over.length === 1 ? "" : "s"} ("${w.over[0]![1]}": the reading was beyond the instrument's range) skipped, ${lines(w.over.map((x) => x[0]))}.`);
+    if (w.nonPositiveT.length) warnings.push(`"${h}": ${w.nonPositiveT.length} reading${w.nonPositiveT.length === 1 ? "" : "s"} of 0 %T or below (no absorbance) skipped, ${lines(w.nonPositiveT)}.`);
+    if (w.empty.length) warnings.push(`"${h}": ${w.empty.length} empty cell${w.empty.length === 1 ? "" : "s"} skipped, ${lines(w.empty)}.`);
+    if (w.text.length) warnings.push(`"${h}": ${w.text.length} cell${w.text.length === 1 ? "" : "s"} of text that is not a reading ("${w.text[0]![1].slice(0, 40)}") skipped, ${lines(w.text.map((x) => x[0]))}.`);
     return {
       name: h,
       quantity: kind.quantity,
@@ -283,8 +302,6 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
       ...(wl ? { metadata: { wavelength_nm: Number(wl[1]!.replace(",", ".")) } } : {}),
     };
   });
-  for (const s of series)
-    if (s.skipped_lines.length) warnings.push(`"${s.name}": ${s.skipped_lines.length} empty or non-numeric cell(s) skipped (lines ${s.skipped_lines.slice(0, 8).join(", ")}${s.skipped_lines.length > 8 ? ", …" : ""}).`);
 
   const metadata = { ...meta.metadata };
   if (metadata.wavelength_nm === undefined && series.length === 1 && series[0]!.metadata?.wavelength_nm !== undefined)

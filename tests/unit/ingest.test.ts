@@ -57,6 +57,16 @@ describe("preview and store", () => {
     expect(await countIngestRows(db)).toEqual(before);
   });
 
+  it("the preview offers the operator and sample the file names, and the first readings exactly as they will be stored", async () => {
+    const text = "Operator: J. Pell\nSample ID: Lot 42-B\nWavelength: 590 nm\nTime (min),A\n0,0.812\n0.5,0.701\n1,0.604\n1.5,0.52\n2,0.449\n";
+    const r = await post("uploads", form({ name: "pell-lot42.csv", bytes: new TextEncoder().encode(text) }));
+    expect(r.status).toBe(200);
+    expect(r.body.suggested).toMatchObject({ operator: "J. Pell", sample: "Lot 42-B", wavelength_nm: 590 });
+    // Minutes read as seconds: the check the analyst makes by eye against the raw lines.
+    expect(r.body.series[0].first_t).toEqual([0, 30, 60, 90, 120]);
+    expect(r.body.series[0].first_y).toEqual([0.812, 0.701, 0.604, 0.52, 0.449]);
+  });
+
   it("POST /api/runs stores raw file, run, series and one audit event; the same file again is offered, not duplicated", async () => {
     const file = `${FIX}/cv-semicolon-decimal-comma.csv`;
     const bytes = new Uint8Array(fs.readFileSync(file));
