@@ -52,7 +52,7 @@ export function RunMethod({
           {current.name}
         </Link>
       ) : (
-        <span className="text-ink-300">none</span>
+        <span className="text-ink-500">none</span>
       )}
       {canAssign && (
         <Button size="sm" variant="quiet" className="ml-2" onClick={() => setOpen(true)}>

@@ -104,7 +104,7 @@ export function RunsTable({ canUpload }: { canUpload: boolean }) {
                       </Link>
                       {r.sample && <span className="ml-2 text-ink-500">{r.sample}</span>}
                     </Td>
-                    <Td>{r.study ?? <span className="text-ink-300">—</span>}</Td>
+                    <Td>{r.study ?? <span className="text-ink-500">—</span>}</Td>
                     <Td numeric>{r.wavelength_nm ?? "—"}</Td>
                     <Td numeric>{r.temperature_c ?? "—"}</Td>
                     <Td numeric>{r.series_count}</Td>

@@ -3,7 +3,7 @@ import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttribu
 import { cn } from "./cn";
 
 const CONTROL =
-  "block w-full rounded-cell border bg-paper-raised px-3 h-10 text-base text-ink-900 placeholder:text-ink-300 " +
+  "block w-full rounded-cell border bg-paper-raised px-3 h-10 text-base text-ink-900 placeholder:text-ink-500 " +
   "focus-visible:outline-2 focus-visible:outline-quartz-600";
 
 interface FieldShellProps {

@@ -46,7 +46,9 @@ describe("accessibility of the main pages (axe-core)", () => {
     const found = await pagesOf("analyst", async (p) => {
       const run = await firstLink(p, "/runs", /corvane/);
       const fit = await firstLink(p, "/fits", /corvane/);
-      return ["/runs", run, "/runs/new", "/fits", fit, "/studies", "/methods"];
+      await p.goto(`${baseURL}${run}`);
+      const workspace = await p.locator('a[href*="/series/"][href$="/fit"]').first().getAttribute("href");
+      return ["/runs", run, workspace!, "/runs/new", "/fits", fit, "/studies", "/methods"];
     });
     expect(found).toEqual([]);
   });

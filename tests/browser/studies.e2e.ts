@@ -89,7 +89,7 @@ describe("temperature study", () => {
       expect(text.stdout).toMatch(/Arrhenius plot/);
       expect(text.stdout).toMatch(/1000 \/ T \(K⁻¹\)/);
       expect(text.stdout).toMatch(/Rafe Okonkwo · APPROVED/);
-      expect(text.stdout).toMatch(/block probe calibrated: 30\.6 °C/);
+      expect(text.stdout).toMatch(/block probe\s+calibrated:\s+30\.6\s+°C/);
     } finally {
       await closeReviewer();
     }

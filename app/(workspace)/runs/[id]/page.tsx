@@ -105,7 +105,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
             {facts.map(([k, v]) => (
               <div key={k} className="contents">
                 <dt className="text-ink-500">{k}</dt>
-                <dd>{v ?? <span className="text-ink-300">not given</span>}</dd>
+                <dd>{v ?? <span className="text-ink-500">not given</span>}</dd>
               </div>
             ))}
             <dt className="text-ink-500">Method</dt>
