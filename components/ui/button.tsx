@@ -3,8 +3,8 @@ import { cn } from "./cn";
 
 const VARIANTS = {
   primary: "bg-quartz-700 text-white hover:bg-quartz-600 disabled:bg-ink-300",
-  secondary: "bg-paper-raised text-ink-900 border border-ink-300 hover:border-ink-500 disabled:text-ink-500",
-  quiet: "bg-transparent text-quartz-700 hover:bg-quartz-100 disabled:text-ink-500",
+  secondary: "bg-paper-raised text-ink-900 border border-ink-300 hover:border-ink-500 disabled:text-ink-300",
+  quiet: "bg-transparent text-quartz-700 hover:bg-quartz-100 disabled:text-ink-300",
   danger: "bg-fault-700 text-white hover:opacity-90 disabled:bg-ink-300",
 } as const;
 
