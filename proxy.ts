@@ -34,5 +34,5 @@ export async function proxy(req: NextRequest) {
 export const config = {
   // Pages only: the API answers 401 itself; sign-in, invitation, first-run and share pages (which check for themselves), assets
   // and fonts stay open to signed-out visitors. Share pages pass through for their status code.
-  matcher: ["/((?!api|sign-in|invite|first-run|share|_next|favicon.ico|fonts).*)", "/share/:token"],
+  matcher: ["/((?!api|sign-in|invite|first-run|share|_next|favicon.ico|icon.svg|fonts).*)", "/share/:token"],
 };

@@ -7,6 +7,7 @@ import "./globals.css";
 export const metadata: Metadata = {
   title: { default: "Halflight", template: "%s · Halflight" },
   description: "UV-Vis absorbance kinetics: ingest, fit, compare, review.",
+  icons: { icon: { url: "/icon.svg", type: "image/svg+xml" } },
 };
 
 export default function RootLayout({ children }: { children: ReactNode }) {

@@ -61,9 +61,14 @@ describe("accessibility of the main pages (axe-core)", () => {
     expect(found).toEqual([]);
   });
 
-  it("the sign-in page", async () => {
+  it("the sign-in page, and the app's own icon served to anyone", async () => {
     const { context, close } = await openBrowser();
     closers.push(close);
-    expect(await violations(await context.newPage(), "/sign-in")).toEqual([]);
+    const page = await context.newPage();
+    expect(await violations(page, "/sign-in")).toEqual([]);
+    expect(await page.locator('link[rel="icon"]').getAttribute("href")).toMatch(/^\/icon\.svg/);
+    const icon = await page.request.get(`${baseURL}/icon.svg`);
+    expect(icon.status()).toBe(200);
+    expect(icon.headers()["content-type"]).toMatch(/image\/svg\+xml/);
   });
 });
