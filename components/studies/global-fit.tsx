@@ -4,7 +4,7 @@
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import type { StudyGlobal } from "@/lib/studies";
 
-export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; twoStage: { value: number; se: number | null } }) {
+export function GlobalFitSection({ g, twoStage, residualSvg }: { g: StudyGlobal | undefined; twoStage: { value: number; se: number | null }; residualSvg?: string | null }) {
   if (!g) return null;
   const excess = g.form === "excess";
   return (
@@ -101,6 +101,19 @@ export function GlobalFitSection({ g, twoStage }: { g: StudyGlobal | undefined; 
               </tbody>
             </table>
           </div>
+          {g.prediction && (
+            <p className="mt-4 text-sm" data-testid="global-prediction">
+              From the global fit at {g.prediction.target_c} °C: k = {formatNumber(g.prediction.k, 4)} s⁻¹ (95 % confidence interval of the mean rate {formatNumber(g.prediction.ci95[0], 3)} …{" "}
+              {formatNumber(g.prediction.ci95[1], 3)}), t90 {formatNumber(g.prediction.t90_s / 3600, 3)} h{g.prediction.extrapolated ? "; extrapolated beyond the measured temperatures" : ""}.
+            </p>
+          )}
+          {residualSvg && (
+            <figure className="mt-4" data-testid="global-residuals">
+              <figcaption className="mb-1 text-sm font-semibold">Each run&apos;s residuals under the shared law (one scale)</figcaption>
+              {/* Our own SVG: every text in it is escaped (sceneToSvg). */}
+              <div className="w-full overflow-hidden" dangerouslySetInnerHTML={{ __html: residualSvg }} />
+            </figure>
+          )}
           <p className="mt-3 text-xs text-ink-500">Estimates for qualified review: shelf-life and release decisions follow the lab&apos;s SOPs and local regulations.</p>
         </>
       )}

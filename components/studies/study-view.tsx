@@ -43,12 +43,15 @@ export function StudyView({
   demoNote,
   candidates,
   review,
+  residualSvg,
 }: {
   study: StudyRecord;
   canWrite: boolean;
   demoNote: boolean;
   candidates: Array<{ id: number; label: string }>;
   review: { isAuthor: boolean; mayDecide: boolean; maySubmit: boolean };
+  /** The global fit's per-run residual panels, drawn on the server. */
+  residualSvg: string | null;
 }) {
   const router = useRouter();
   const toast = useToast();
@@ -83,7 +86,7 @@ export function StudyView({
         <p className="num mt-4 font-mono text-2xl">k2 = {formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹</p>
         <p className="text-sm text-ink-500">Intercept {formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ (a solvent or reverse path); r² {r.r2.toFixed(5)}.</p>
         <div className="mt-6 space-y-6">
-          <GlobalFitSection g={r.global} twoStage={r.k2} />
+          <GlobalFitSection g={r.global} twoStage={r.k2} residualSvg={residualSvg} />
           <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
         </div>
       </div>
@@ -219,7 +222,7 @@ export function StudyView({
           />
         </div>
       </section>
-      <GlobalFitSection g={r.global} twoStage={r.ea} />
+      <GlobalFitSection g={r.global} twoStage={r.ea} residualSvg={residualSvg} />
       <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
       <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Prediction">
         <h2 className="mb-3 text-lg font-semibold">Prediction at a temperature</h2>

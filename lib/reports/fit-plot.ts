@@ -68,14 +68,22 @@ function tickLabel(v: number, step: number): string {
 }
 
 export function ticks(lo: number, hi: number, count: number): { values: number[]; ticks: (map: (v: number) => number) => Tick[]; lo: number; hi: number } {
-  const first = niceTicks(lo, hi, count);
-  const step = first.length > 1 ? first[1]! - first[0]! : Math.abs(hi - lo) || 1;
-  // The axis runs from tick to tick, so no point sits on the frame.
-  const a = Math.floor(lo / step + 1e-9) * step,
-    b = Math.ceil(hi / step - 1e-9) * step;
-  const values = niceTicks(a, b === a ? a + step : b, Math.round((b - a) / step) || 1);
-  // The frame spans every point even if a tick falls a rounding error inside it.
-  return { values, lo: Math.min(values[0] ?? a, a), hi: Math.max(values.at(-1) ?? b, b), ticks: (map) => values.map((v) => ({ at: map(v), label: tickLabel(v, step) })) };
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return { values: [], lo: 0, hi: 1, ticks: () => [] };
+  if (hi === lo) {
+    const d = Math.abs(lo) * 0.05 || 1;
+    lo -= d;
+    hi += d;
+  }
+  // The nice step for about `count` intervals, then the axis from the tick at or below lo to the tick at or above hi,
+  // so no point sits on the frame and every tick between is labelled.
+  const raw = (hi - lo) / Math.max(1, count);
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw * (1 - 1e-9))!;
+  const first = Math.floor(lo / step + 1e-9),
+    last = Math.ceil(hi / step - 1e-9);
+  const values: number[] = [];
+  for (let i = first; i <= last; i++) values.push(Math.abs(i * step) < step * 1e-9 ? 0 : i * step);
+  return { values, lo: first * step, hi: last * step, ticks: (map) => values.map((v) => ({ at: map(v), label: tickLabel(v, step) })) };
 }
 
 /** Per pixel column, the first, lowest and highest point (and every point when there are few). */

@@ -66,3 +66,45 @@ export function ratePlotScene(kind: "arrhenius" | "eyring", members: readonly Ra
     description: `${name} plot: ${yLabel} against 1000/T for ${pts.length} rate constants at ${distinct} temperatures${band.length ? `, with the ${weighted ? "weighted " : ""}fitted line and its 95 % confidence band` : ""}.`,
   };
 }
+
+/**
+ * One residual panel per run of a global fit (reading − curve under the shared law, against time), stacked, on one
+ * residual scale so their sizes compare; a run that does not follow the shared law shows as a pattern or a wider band.
+ */
+export function residualPanelsScene(runs: ReadonlyArray<{ label: string; t: readonly number[]; r: readonly number[] }>, width = 720): PlotScene {
+  const margin = { left: 78, right: 16, top: 12, bottom: 46 };
+  const panelH = 70,
+    gap = 56;
+  const rMax = Math.max(1e-12, ...runs.flatMap((x) => x.r.map(Math.abs)));
+  const panels: Panel[] = [];
+  const w = width - margin.left - margin.right;
+  runs.forEach((run, i) => {
+    const top = margin.top + i * (panelH + gap);
+    const minutes = run.t.length > 0 && run.t.at(-1)! - run.t[0]! > 2400;
+    const f = minutes ? 1 / 60 : 1;
+    const tx = ticks(Math.min(...run.t) * f, Math.max(...run.t) * f, 6);
+    const ty = ticks(-rMax, rMax, 2);
+    const X = (v: number) => margin.left + ((v - tx.lo) / (tx.hi - tx.lo || 1)) * w;
+    const Y = (v: number) => top + panelH - ((v - ty.lo) / (ty.hi - ty.lo || 1)) * panelH;
+    panels.push({
+      x: margin.left,
+      y: top,
+      w,
+      h: panelH,
+      xTicks: tx.ticks(X),
+      yTicks: ty.ticks(Y),
+      xLabel: `${run.label}: t (${minutes ? "min" : "s"})`,
+      yLabel: "residual",
+      points: run.t.map((t, q) => ({ x: X(t * f), y: Y(run.r[q]!), outside: false })),
+      line: [],
+      rule: Y(0),
+    });
+  });
+  return {
+    width,
+    height: margin.top + runs.length * (panelH + gap) - gap + margin.bottom,
+    panels,
+    legend: { points: "residuals (reading − curve under the shared law)", outside: null, line: null },
+    description: `Residuals of each run under the shared law, one panel per run (${runs.map((r) => r.label).join(", ")}), on one scale.`,
+  };
+}

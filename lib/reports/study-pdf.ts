@@ -11,7 +11,7 @@ import { listComments, reviewStatus } from "@/lib/reviews";
 import { getStudyRecord, PREDICTION_CAUTION, type StudyGlobal } from "@/lib/studies";
 import { drawSceneOnPdf, type PdfSurface } from "./fit-plot";
 import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
-import { ratePlotScene } from "./rate-plot";
+import { ratePlotScene, residualPanelsScene } from "./rate-plot";
 
 const kj = (v: number | null | undefined) => (v === null || v === undefined ? null : v / 1000);
 const hours = (s: number) => (s >= 86400 * 2 ? `${formatNumber(s / 86400, 3)} d` : `${formatNumber(s / 3600, 3)} h`);
@@ -64,6 +64,21 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
     doc.y = top + used + 16;
   };
 
+  const residualPanels = (g: StudyGlobal) => {
+    const strips = (g.runs ?? []).filter((r) => r.residuals).map((r) => ({ label: r.run_name, t: r.residuals!.t, r: r.residuals!.r }));
+    if (!strips.length) return;
+    const scene = residualPanelsScene(strips);
+    const height = (scene.height * 440) / scene.width;
+    if (doc.y + height + 30 > doc.page.height - 60) doc.addPage();
+    line("Each run's residuals under the shared law (one scale)", 10, "bold");
+    const top = doc.y + 4;
+    doc.font("sans");
+    const used = drawSceneOnPdf(doc as unknown as PdfSurface, scene, 44, top, 440, printable);
+    doc.fillColor("#1b2230");
+    doc.x = 48;
+    doc.y = top + used + 8;
+  };
+
   line(`Halflight study record: ${st.name}`, 16, "bold");
   line(`Version ${st.version} of ${st.versions.length} · ${labName} · ${st.kind === "temperature" ? "temperature study" : "excess-concentration series"}`, 10);
   line(`Saved ${st.created_at.replace("T", " ").slice(0, 19)} UTC by ${st.author ?? "—"} · review state: ${review.state}${review.superseded_by ? ` (superseded by version ${review.superseded_by.version})` : ""}`, 10);
@@ -90,6 +105,7 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
       if (g.agreement) line(`Two-stage minus global k2: ${formatNumber(g.agreement.difference, 3)} L mol⁻¹ s⁻¹${g.agreement.z !== null ? ` (${g.agreement.z.toFixed(2)} combined SE)` : ""}`, 9);
       for (const run of g.runs ?? []) line(`   ${run.run_name}: [B]0 ${run.excess_mol_l ?? "?"} mol L⁻¹, n ${run.n}, k_obs = ${formatWithUncertainty(run.k, run.se_k)} s⁻¹, share of SSR ${run.ssr_share === null ? "—" : `${(run.ssr_share * 100).toFixed(1)} %`}`, 8);
       for (const w of g.warnings ?? []) line(w, 9, "bold");
+      residualPanels(g);
     }
   } else {
     const r = st.results as unknown as TemperatureResults;
@@ -114,6 +130,9 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
       for (const run of g.runs ?? [])
         line(`   ${run.run_name}: ${run.temperature_c?.toFixed(1) ?? "?"} °C, n ${run.n}, k = ${formatWithUncertainty(run.k, run.se_k)} s⁻¹, share of SSR ${run.ssr_share === null ? "—" : `${(run.ssr_share * 100).toFixed(1)} %`}, runs test z ${run.runs_z?.toFixed(2) ?? "—"}`, 8);
       for (const w of g.warnings ?? []) line(w, 9, "bold");
+      if (g.prediction)
+        line(`From the global fit at ${g.prediction.target_c} °C: k = ${formatNumber(g.prediction.k, 4)} s⁻¹ (95 % confidence interval of the mean rate ${formatNumber(g.prediction.ci95[0], 3)} … ${formatNumber(g.prediction.ci95[1], 3)}), t90 ${hours(g.prediction.t90_s)}${g.prediction.extrapolated ? "; extrapolated beyond the measured temperatures" : ""}.`, 9);
+      residualPanels(g);
     }
 
     heading("Prediction at the storage temperature");

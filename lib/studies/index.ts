@@ -22,7 +22,9 @@ import {
   t90,
   TemperatureDataError,
   GlobalFitError,
+  GAS_R,
   includedPoints,
+  tQuantile,
   PRIMARY_MODEL,
   type GlobalFitResult,
   type GlobalRun,
@@ -157,7 +159,21 @@ export interface StudyGlobal {
   correlation_ea_kref?: number | null;
   n?: number;
   dof?: number;
-  runs?: Array<{ fit_id: number; run_name: string; temperature_c: number | null; excess_mol_l?: number | null; n: number; k: number | null; se_k: number | null; ssr_share: number | null; runs_z: number | null }>;
+  runs?: Array<{
+    fit_id: number;
+    run_name: string;
+    temperature_c: number | null;
+    excess_mol_l?: number | null;
+    n: number;
+    k: number | null;
+    se_k: number | null;
+    ssr_share: number | null;
+    runs_z: number | null;
+    /** The run's residuals under the shared law, for its panel: the lowest and highest of each of 75 time buckets. */
+    residuals?: { t: number[]; r: number[] };
+  }>;
+  /** k at the study's target temperature from the global Ea and kref, with its 95 % confidence interval (delta method). */
+  prediction?: { target_c: number; k: number; ci95: [number, number]; t90_s: number; extrapolated: boolean; caution: string } | null;
   converged?: boolean;
   message?: string;
   warnings?: string[];
@@ -170,7 +186,30 @@ export interface StudyGlobal {
  * worker thread: first order, each run's a0 and A∞ its own, k following the shared law: Arrhenius (Ea and kref shared)
  * for temperature studies, k_obs = k2·[B]0 (k2 shared) for excess-concentration series.
  */
-async function globalForStudy(db: Knex, labId: number, members: ResolvedMember[], twoStage: { value: number; se: number | null } | null, form: "arrhenius" | "excess"): Promise<StudyGlobal> {
+/** At most 150 residuals of a run for its panel: the lowest and highest of each of 75 buckets in time, 4 digits. */
+function residualStrip(t: ArrayLike<number>, r: ArrayLike<number>): { t: number[]; r: number[] } {
+  const n = t.length;
+  const keep: number[] = [];
+  if (n <= 150) for (let i = 0; i < n; i++) keep.push(i);
+  else {
+    const buckets = 75;
+    for (let b = 0; b < buckets; b++) {
+      const a = Math.floor((b * n) / buckets),
+        e = Math.floor(((b + 1) * n) / buckets);
+      let lo = a,
+        hi = a;
+      for (let i = a; i < e; i++) {
+        if (r[i]! < r[lo]!) lo = i;
+        if (r[i]! > r[hi]!) hi = i;
+      }
+      keep.push(...(lo < hi ? [lo, hi] : lo > hi ? [hi, lo] : [lo]));
+    }
+  }
+  const p4 = (v: number) => Number(v.toPrecision(4));
+  return { t: keep.map((i) => p4(t[i]!)), r: keep.map((i) => p4(r[i]!)) };
+}
+
+async function globalForStudy(db: Knex, labId: number, members: ResolvedMember[], twoStage: { value: number; se: number | null } | null, form: "arrhenius" | "excess", targetC?: number | null): Promise<StudyGlobal> {
   const runs: GlobalRun[] = [];
   const ids: number[] = [];
   for (const m of members) {
@@ -204,11 +243,51 @@ async function globalForStudy(db: Knex, labId: number, members: ResolvedMember[]
     ...shared,
     n: g.n,
     dof: g.dof,
-    runs: g.runs.map((r, i) => ({ fit_id: ids[i]!, run_name: r.label, temperature_c: r.temperature_k === null ? null : r.temperature_k - KELVIN_OFFSET, excess_mol_l: runs[i]!.excessMolL ?? null, n: r.n, k: r.k.value, se_k: r.k.se, ssr_share: r.ssr_share, runs_z: r.runs_z })),
+    runs: g.runs.map((r, i) => ({
+      fit_id: ids[i]!,
+      run_name: r.label,
+      temperature_c: r.temperature_k === null ? null : r.temperature_k - KELVIN_OFFSET,
+      excess_mol_l: runs[i]!.excessMolL ?? null,
+      n: r.n,
+      k: r.k.value,
+      se_k: r.k.se,
+      ssr_share: r.ssr_share,
+      runs_z: r.runs_z,
+      ...(r.residuals.length ? { residuals: residualStrip(runs[i]!.t, r.residuals) } : {}),
+    })),
+    prediction: form === "arrhenius" && targetC !== undefined && targetC !== null ? globalPrediction(g, targetC) : null,
     converged: g.converged,
     message: g.message,
     warnings: g.warnings,
     agreement: Number.isFinite(difference) ? { difference, z: combined ? difference / combined : null, agree: combined ? Math.abs(difference / combined) <= 2 : null } : undefined,
+  };
+}
+
+/**
+ * k at a temperature from the global fit's Ea and kref: k = kref·exp(−(Ea/R)(1/T − 1/Tref)), its SE by the delta method
+ * over their covariance (from the SEs and their correlation), the 95 % interval with t on the fit's degrees of freedom.
+ */
+function globalPrediction(g: GlobalFitResult, targetC: number): StudyGlobal["prediction"] {
+  const [ea, kref] = g.parameters;
+  const r01 = g.correlation?.[0]?.[1];
+  if (!ea || !kref || ea.value === null || kref.value === null || ea.se === null || kref.se === null || r01 === undefined || !Number.isFinite(r01) || g.tref_k === null) return null;
+  const T = celsiusToKelvin(targetC);
+  const u = 1 / T - 1 / g.tref_k;
+  const e = Math.exp((-ea.value / GAS_R) * u);
+  const k = kref.value * e;
+  const dEa = (-k * u) / GAS_R,
+    dKref = e;
+  const v = dEa ** 2 * ea.se ** 2 + 2 * dEa * dKref * r01 * ea.se * kref.se + dKref ** 2 * kref.se ** 2;
+  const se = Math.sqrt(Math.max(v, 0));
+  const tq = tQuantile(0.975, g.dof);
+  const temps = g.runs.map((r) => r.temperature_k! - KELVIN_OFFSET);
+  return {
+    target_c: targetC,
+    k,
+    ci95: [Math.max(k - tq * se, 0), k + tq * se],
+    t90_s: t90(k).value,
+    extrapolated: targetC < Math.min(...temps) || targetC > Math.max(...temps),
+    caution: PREDICTION_CAUTION,
   };
 }
 
@@ -222,7 +301,7 @@ async function storeVersion(
   // Beside the two-stage route, every curve fitted together (temperature studies over two or more temperatures).
   const results =
     computed.kind === "temperature" && "temperatures" in computed && computed.temperatures >= 2
-      ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.ea, "arrhenius") }
+      ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.ea, "arrhenius", input.options.target_c) }
       : computed.kind === "excess" && "k2" in computed
         ? { ...computed, global: await globalForStudy(db, user.labId, resolved, computed.k2, "excess") }
         : computed;

@@ -40,6 +40,30 @@ describe("temperature study", () => {
     expect(Math.abs(g.ea!.value! - 82_000)).toBeLessThan(3 * g.ea!.se!);
     expect(g.agreement!.agree).toBe(true);
     expect(Math.abs(g.correlation_ea_kref!)).toBeLessThan(0.95);
+    // Each run's residual panel: at most 150 residuals, in time order, within the run's span.
+    for (const run of g.runs!) {
+      expect(run.residuals!.t.length).toBeGreaterThan(10);
+      expect(run.residuals!.t.length).toBeLessThanOrEqual(150);
+      expect(run.residuals!.t).toEqual([...run.residuals!.t].sort((a, b) => a - b));
+    }
+  });
+
+  it("the global fit's k at the target temperature: the Arrhenius form of the CLI contract from its Ea and kref, and it agrees with the two-stage prediction", async () => {
+    const s = await createStudy(db, analyst, { name: "Global prediction", kind: "temperature", members: fitIds.map((fitId) => ({ fitId })), options: { weighted: true, target_c: 20 } });
+    const r = (await getStudyRecord(db, analyst.labId, s.id)).results as { prediction: { k: number; k_ci95: [number, number] }; global: StudyGlobal };
+    const g = r.global;
+    const p = g.prediction!;
+    // k(T) = kref·exp(−(Ea/R)(1/T − 1/Tref)), T in kelvin (shared/contracts/CLI.md, "global").
+    const R = 8.314462618;
+    const expected = g.kref!.value! * Math.exp((-g.ea!.value! / R) * (1 / (20 + 273.15) - 1 / (g.tref_c! + 273.15)));
+    expect(Math.abs(p.k - expected)).toBeLessThan(1e-9 * expected);
+    expect(p.ci95[0]).toBeLessThan(p.k);
+    expect(p.ci95[1]).toBeGreaterThan(p.k);
+    expect(p.extrapolated).toBe(true);
+    expect(p.caution).toMatch(/qualified review/);
+    // The two routes' intervals overlap on these clean runs.
+    expect(p.ci95[0]).toBeLessThan(r.prediction.k_ci95[1]);
+    expect(r.prediction.k_ci95[0]).toBeLessThan(p.ci95[1]);
   });
 
   it("replicate runs at one temperature: temperatures counted as distinct values, Q10 only between distinct temperatures", async () => {

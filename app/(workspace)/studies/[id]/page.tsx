@@ -7,7 +7,9 @@ import { requirePageUser } from "@/lib/auth/page";
 import { AppError } from "@/lib/errors";
 import { can } from "@/lib/permissions";
 import { listFits } from "@/lib/fits";
-import { getStudyRecord } from "@/lib/studies";
+import { residualPanelsScene } from "@/lib/reports/rate-plot";
+import { sceneToSvg } from "@/lib/reports/fit-plot";
+import { getStudyRecord, type StudyGlobal } from "@/lib/studies";
 
 export const metadata: Metadata = { title: "Study" };
 
@@ -26,8 +28,13 @@ export default async function StudyPage({ params }: { params: Promise<{ id: stri
         .filter((f) => !inStudy.has(f.id) && f.k_value !== null)
         .map((f) => ({ id: f.id, label: `${f.title} v${f.version} · ${f.run_name} · ${f.temperature_c ?? "?"} °C` }))
     : [];
+  // The global fit's residual panels, drawn here as SVG (the same scene the PDF draws).
+  const g = (rec.results as { global?: StudyGlobal }).global;
+  const strips = (g?.runs ?? []).filter((r) => r.residuals).map((r) => ({ label: r.run_name, t: r.residuals!.t, r: r.residuals!.r }));
+  const residualSvg = strips.length ? sceneToSvg(residualPanelsScene(strips), "Residuals of each run under the shared law") : null;
   return (
     <StudyView
+      residualSvg={residualSvg}
       study={rec}
       canWrite={can(user, "study:write")}
       demoNote={user.labSlug === DEMO_LAB.slug}
