@@ -27,6 +27,31 @@ import { useSeriesFit } from "./use-fit";
 
 const num = parseDecimalField;
 
+/**
+ * A time entered in the page's own time unit (minutes when the page shows minutes) and kept in seconds: what is typed
+ * stays as typed while the field has focus; the options get seconds.
+ */
+function TimeInput({ label, seconds, scale, hint, onSeconds }: { label: string; seconds: string; scale: number; hint?: string; onSeconds: (s: string) => void }) {
+  const [draft, setDraft] = useState<string | null>(null);
+  const sec = num(seconds);
+  const shown = draft ?? (sec === null ? "" : String(Number((sec / scale).toPrecision(10))));
+  return (
+    <Input
+      label={`${label} (${scale === 60 ? "min" : "s"})`}
+      inputMode="decimal"
+      value={shown}
+      hint={hint}
+      onFocus={() => setDraft(shown)}
+      onBlur={() => setDraft(null)}
+      onChange={(e) => {
+        setDraft(e.target.value);
+        const v = num(e.target.value);
+        onSeconds(v === null ? "" : String(Number((v * scale).toPrecision(12))));
+      }}
+    />
+  );
+}
+
 const CURVE_MODELS = new Set(MODELS.filter((m) => m.family !== "straight-line").map((m) => m.id));
 
 interface Props {
@@ -194,7 +219,9 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     return { tAt, model, data, line: { x: [tAt - span * 2, tAt + span * 2], y: [yAt + model * span * 2, yAt - model * span * 2] } };
   }, [rateAt, outcome, tScale, points]);
   const incIdx = points.t.map((_, i) => i).filter((i) => outcome.included[i]);
-  const exIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i]);
+  // Left out by the analyst (with a reason) and outside the fitting window are different things: different markers.
+  const exIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i] && excludedSet.has(i));
+  const outIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i] && !excludedSet.has(i));
   const long = points.t.length > 2000;
   const stride = long ? Math.ceil(points.t.length / 2000) : 1;
   const show = (idx: number[]) => idx.filter((_, j) => j % stride === 0);
@@ -226,7 +253,16 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
                 x: exIdx.map((i) => points.t[i]! / tScale),
                 y: exIdx.map((i) => conv(points.y[i]!)),
                 customdata: exIdx,
-                marker: { color: "#a9b1bf", size: 7, symbol: "x" },
+                marker: { color: "#5d687c", size: 8, symbol: "x" },
+              },
+              {
+                type: outIdx.length > 2000 ? "scattergl" : "scatter",
+                mode: "markers",
+                name: "outside the window",
+                x: show(outIdx).map((i) => points.t[i]! / tScale),
+                y: show(outIdx).map((i) => conv(points.y[i]!)),
+                customdata: show(outIdx),
+                marker: { color: "#8a94a6", size: 7, symbol: "circle-open" },
               },
               ...outcome.models
                 .filter((m) => CURVE_MODELS.has(m.model) && m.result.converged)
@@ -284,7 +320,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
             </div>
           )}
           <p className="mt-1 text-xs text-ink-500">
-            Click a point to exclude it (you will be asked why); click an excluded point (grey ×) to restore it; or use the box-select tool to pick several. {long ? `Shown: every ${stride}th point; fits use all ${points.t.length.toLocaleString("en")}.` : ""}
+            Click a point to exclude it (you will be asked why); click an excluded point (×) to restore it; open rings are outside the fitting window; or use the box-select tool to pick several. {long ? `Shown: every ${stride}th point; fits use all ${points.t.length.toLocaleString("en")}.` : ""}
           </p>
         </section>
 
@@ -375,15 +411,15 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           </div>
           {(models.includes("guggenheim") || models.includes("kezdy-swinbourne")) && (
             <div className="mt-2">
-              <Input label="Interval for Guggenheim / Kezdy–Swinbourne (s)" inputMode="decimal" value={interval} onChange={(e) => setInterval(e.target.value)} hint="Pairs of readings this far apart; 2–3 half-lives is usual." />
+              <TimeInput label="Interval for Guggenheim / Kezdy–Swinbourne" seconds={interval} scale={tScale} onSeconds={setInterval} hint="Pairs of readings this far apart (a multiple of their spacing); 2–3 half-lives is usual." />
             </div>
           )}
         </fieldset>
         <fieldset className="space-y-3 rounded-cell bg-paper-raised p-4 shadow-lift">
           <legend className="px-1 text-sm font-semibold">Window and A∞</legend>
           <div className="grid grid-cols-2 gap-3">
-            <Input label="From (s)" inputMode="decimal" value={windowFrom} onChange={(e) => setWindowFrom(e.target.value)} />
-            <Input label="To (s)" inputMode="decimal" value={windowTo} onChange={(e) => setWindowTo(e.target.value)} />
+            <TimeInput label="From" seconds={windowFrom} scale={tScale} onSeconds={setWindowFrom} />
+            <TimeInput label="To" seconds={windowTo} scale={tScale} onSeconds={setWindowTo} />
           </div>
           <Input label="Fix A∞ at (measured)" inputMode="decimal" value={fixAinf} onChange={(e) => setFixAinf(e.target.value)} hint="Empty: A∞ is fitted (and estimated for the linearized view)." />
           <label className="flex items-center gap-2 text-sm">

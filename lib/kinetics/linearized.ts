@@ -110,10 +110,34 @@ export function pairsAtInterval(t: ArrayLike<number>, interval: number): Array<[
   return pairs;
 }
 
-export function guggenheim(t: ArrayLike<number>, y: ArrayLike<number>, interval: number): FitResult {
+/**
+ * The interval that pairs readings: the one asked for when at least three pairs of readings are that far apart, else the
+ * nearest multiple of the readings' usual spacing (their median step) that does, with a note saying so.
+ */
+export function snapInterval(t: ArrayLike<number>, interval: number, snap = true): { interval: number; pairs: Array<[number, number]>; note: string | null } {
+  const asked = pairsAtInterval(t, interval);
+  if (!snap || asked.length >= 3 || t.length < 4) return { interval, pairs: asked, note: null };
+  const steps: number[] = [];
+  for (let i = 1; i < t.length; i++) if (t[i]! > t[i - 1]!) steps.push(t[i]! - t[i - 1]!);
+  if (!steps.length) return { interval, pairs: asked, note: null };
+  steps.sort((a, b) => a - b);
+  const dt = steps[Math.floor(steps.length / 2)]!;
+  const base = Math.max(1, Math.round(interval / dt));
+  for (const m of [base, base - 1, base + 1, base - 2, base + 2]) {
+    if (m < 1) continue;
+    const snapped = Number((m * dt).toPrecision(12));
+    const pairs = pairsAtInterval(t, snapped);
+    if (pairs.length >= 3)
+      return { interval: snapped, pairs, note: `No readings are ${interval} s apart; the nearest interval that pairs them, ${snapped} s (${m} × the ${Number(dt.toPrecision(6))} s spacing of the readings), was used.` };
+  }
+  return { interval, pairs: asked, note: null };
+}
+
+export function guggenheim(t: ArrayLike<number>, y: ArrayLike<number>, intervalAsked: number, snap = false): FitResult {
   const params = ["k", "amplitude"];
-  if (!(interval > 0)) return failedFit("guggenheim", params, t.length, "No fit: the Guggenheim method needs --interval, a positive time in seconds (2–3 half-lives is usual).");
-  const pairs = pairsAtInterval(t, interval);
+  if (!(intervalAsked > 0)) return failedFit("guggenheim", params, t.length, "No fit: the Guggenheim method needs an interval, a positive time (2–3 half-lives is usual).");
+  const snapped = snapInterval(t, intervalAsked, snap);
+  const { interval, pairs } = snapped;
   const diffs = pairs.map(([i, j]) => y[i]! - y[j]!);
   const pos = diffs.filter((d) => d > 0).length;
   const sign = pos >= diffs.length - pos ? 1 : -1;
@@ -126,14 +150,14 @@ export function guggenheim(t: ArrayLike<number>, y: ArrayLike<number>, interval:
       ln.push(Math.log(d));
     }
   });
-  const warnings: string[] = [];
-  if (ts.length < pairs.length) warnings.push(`${pairs.length - ts.length} pair(s) with no decrease over the interval were left out.`);
+  const warnings: string[] = snapped.note ? [snapped.note] : [];
+  if (ts.length < pairs.length) warnings.push(`${pairs.length - ts.length} pair${pairs.length - ts.length === 1 ? "" : "s"} with no decrease over the interval ${pairs.length - ts.length === 1 ? "was" : "were"} left out.`);
   let line: LineFit;
   try {
     line = fitLine(ts, ln);
   } catch (e) {
     if (e instanceof RegressionError)
-      return failedFit("guggenheim", params, pairs.length, `No fit: ${pairs.length} pair(s) of readings are ${interval} s apart; ${e.message}`);
+      return failedFit("guggenheim", params, pairs.length, `No fit: ${pairs.length === 0 ? "no" : `only ${pairs.length}`} pair${pairs.length === 1 ? "" : "s"} of readings ${pairs.length === 1 ? "is" : "are"} ${interval} s apart; choose an interval that is a multiple of the readings' spacing and leaves at least three pairs.`);
     throw e;
   }
   const amp = Math.exp(line.intercept);
@@ -147,10 +171,11 @@ export function guggenheim(t: ArrayLike<number>, y: ArrayLike<number>, interval:
   return lineResult("guggenheim", line, parameters, `Least squares of ln|y(t) − y(t + ${interval} s)| on t over ${ts.length} pairs; A∞ not needed.`, warnings, "none", ts);
 }
 
-export function kezdySwinbourne(t: ArrayLike<number>, y: ArrayLike<number>, interval: number): FitResult {
+export function kezdySwinbourne(t: ArrayLike<number>, y: ArrayLike<number>, intervalAsked: number, snap = false): FitResult {
   const params = ["k", "ainf"];
-  if (!(interval > 0)) return failedFit("kezdy-swinbourne", params, t.length, "No fit: the Kezdy–Swinbourne method needs --interval, a positive time in seconds.");
-  const pairs = pairsAtInterval(t, interval);
+  if (!(intervalAsked > 0)) return failedFit("kezdy-swinbourne", params, t.length, "No fit: the Kezdy–Swinbourne method needs an interval, a positive time.");
+  const snapped = snapInterval(t, intervalAsked, snap);
+  const { interval, pairs } = snapped;
   const a = pairs.map(([i]) => y[i]!);
   const b = pairs.map(([, j]) => y[j]!);
   let line: LineFit;
@@ -158,7 +183,7 @@ export function kezdySwinbourne(t: ArrayLike<number>, y: ArrayLike<number>, inte
     line = fitLine(a, b);
   } catch (e) {
     if (e instanceof RegressionError)
-      return failedFit("kezdy-swinbourne", params, pairs.length, `No fit: ${pairs.length} pair(s) of readings are ${interval} s apart; ${e.message}`);
+      return failedFit("kezdy-swinbourne", params, pairs.length, `No fit: ${pairs.length === 0 ? "no" : `only ${pairs.length}`} pair${pairs.length === 1 ? "" : "s"} of readings ${pairs.length === 1 ? "is" : "are"} ${interval} s apart; choose an interval that is a multiple of the readings' spacing and leaves at least three pairs.`);
     throw e;
   }
   const s = line.slope,
@@ -177,7 +202,7 @@ export function kezdySwinbourne(t: ArrayLike<number>, y: ArrayLike<number>, inte
     line,
     parameters,
     `Least squares of y(t + ${interval} s) on y(t) over ${pairs.length} pairs: k = −ln(slope)/interval, ainf = intercept/(1 − slope); SEs by the delta method.`,
-    [],
+    snapped.note ? [snapped.note] : [],
     "none",
     a,
   );

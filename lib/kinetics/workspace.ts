@@ -124,6 +124,7 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
         fixed,
         start: Object.keys(starts).length ? starts : undefined,
         interval: o.interval ?? undefined,
+        snapInterval: true,
         logWeights: o.logWeights,
       });
     } catch (e) {

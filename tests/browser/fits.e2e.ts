@@ -62,6 +62,21 @@ describe("fitting workspace", () => {
     for (const [model, param, unit] of expected) await expect.poll(async () => (await unitOf(model, param).textContent())?.trim(), { message: `${model} ${param}` }).toBe(unit);
   });
 
+  it("the fitting window is typed in the page's time unit, and points outside it are drawn apart from excluded ones", async () => {
+    await page.goto(`${baseURL}/runs`);
+    await page.getByRole("link", { name: /corvane-blue-40C/ }).first().click();
+    await page.getByTestId("fit-link").first().click();
+    await page.getByTestId("comparison").waitFor();
+    // Minutes are shown by default: the window is entered in minutes and kept in seconds.
+    await page.getByLabel("From (min)").fill("1");
+    await page.getByLabel("From (min)").blur();
+    await page.locator(".legendtext", { hasText: "outside the window" }).first().waitFor();
+    await page.getByLabel("Show times in minutes and k per minute (stored in seconds)").uncheck();
+    await expect.poll(() => page.getByLabel("From (s)").inputValue()).toBe("60");
+    await page.getByLabel("Show times in minutes and k per minute (stored in seconds)").check();
+    await expect.poll(() => page.getByLabel("From (min)").inputValue()).toBe("1");
+  });
+
   it("excludes a point with a reason, fixes A∞, saves version 2 and shows what changed", async () => {
     await page.goto(`${baseURL}/fits`);
     await page.getByRole("link", { name: /corvane-blue-25C · Cell 1/ }).click();

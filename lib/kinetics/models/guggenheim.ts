@@ -16,5 +16,5 @@ export const guggenheim: ModelDescriptor = {
   firstOrderK: true,
   needsInterval: true,
   curve: null,
-  fit: (t, y, spec) => fitGuggenheim(t, y, spec.interval ?? NaN),
+  fit: (t, y, spec) => fitGuggenheim(t, y, spec.interval ?? NaN, spec.snapInterval ?? false),
 };

@@ -16,5 +16,5 @@ export const kezdySwinbourne: ModelDescriptor = {
   firstOrderK: true,
   needsInterval: true,
   curve: null,
-  fit: (t, y, spec) => fitKs(t, y, spec.interval ?? NaN),
+  fit: (t, y, spec) => fitKs(t, y, spec.interval ?? NaN, spec.snapInterval ?? false),
 };

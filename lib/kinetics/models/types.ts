@@ -19,6 +19,9 @@ export interface FitSpec {
   start?: Record<string, number>;
   /** Seconds, for Guggenheim and Kezdy–Swinbourne. */
   interval?: number;
+  /** An interval that pairs too few readings is moved to the nearest that pairs them, with a note (the workspace does;
+   * `cli fit` keeps the interval exactly as asked, as its contract says). */
+  snapInterval?: boolean;
   weighting?: Weighting;
   /** Linearized fit: weight by (y − A∞)². */
   logWeights?: boolean;

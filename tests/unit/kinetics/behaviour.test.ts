@@ -137,7 +137,20 @@ describe("other models", () => {
     const ks = fitKinetics(t, decay, { model: "kezdy-swinbourne", interval: 200 });
     expect(p(ks, "k").value).toBeCloseTo(0.004, 10);
     expect(p(ks, "ainf").value).toBeCloseTo(0.05, 10);
-    expect(fitKinetics(t, decay, { model: "guggenheim" }).message).toMatch(/needs --interval/);
+    expect(fitKinetics(t, decay, { model: "guggenheim" }).message).toMatch(/needs an interval/);
+  });
+  it("an interval off the readings' grid: kept as asked by default (no pairs, said plainly), moved to the nearest spacing that pairs readings when asked to snap", () => {
+    const asked = 205; // the readings are every 20 s here (common practice: pairs need readings exactly Δ apart)
+    const exact = fitKinetics(t, decay, { model: "guggenheim", interval: asked });
+    expect(exact.converged).toBe(false);
+    expect(exact.message).toMatch(/no pairs of readings are 205 s apart; choose an interval that is a multiple of the readings' spacing/);
+    expect(exact.message).not.toMatch(/--/);
+    const snapped = fitKinetics(t, decay, { model: "guggenheim", interval: asked, snapInterval: true });
+    expect(snapped.converged).toBe(true);
+    expect(p(snapped, "k").value).toBeCloseTo(0.004, 10);
+    expect(snapped.warnings.join(" ")).toMatch(/No readings are 205 s apart; the nearest interval that pairs them, 200 s \(10 × the 20 s spacing of the readings\), was used\./);
+    const ks = fitKinetics(t, decay, { model: "kezdy-swinbourne", interval: asked, snapInterval: true });
+    expect(p(ks, "k").value).toBeCloseTo(0.004, 10);
   });
   it("the linearized fit without A∞ says it was estimated", () => {
     const r = fitKinetics(t, decay, { model: "linearized" });
