@@ -15,7 +15,7 @@ import { useToast } from "@/components/ui/toast";
 import { CHANNEL_PALETTE, solutionColour } from "@/lib/colour/wavelength";
 import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
-import { fetcher } from "@/lib/http/fetcher";
+import { fetcher, seriesPointsFetcher } from "@/lib/http/fetcher";
 import { firstOrderRate, localTangentRate } from "@/lib/kinetics/quantities";
 import { evaluateCriteria, type Criterion } from "@/lib/kinetics/criteria";
 import { FORMULA_FUNCTIONS } from "@/lib/kinetics/formula";
@@ -23,6 +23,7 @@ import { DEFAULT_MODELS, fitUnits, MODELS, modelById, parameterUnit, perMinuteFa
 import { convertReading, fitSeriesWithOptions, type Conversion, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import type { FitOptions } from "@/lib/schemas/fits";
 import type { MethodForRun } from "@/lib/schemas/methods";
+import { decimateIndices, decimate } from "@/lib/plot/decimate";
 import { useSeriesFit } from "./use-fit";
 
 const num = parseDecimalField;
@@ -52,6 +53,9 @@ function TimeInput({ label, seconds, scale, hint, onSeconds }: { label: string; 
   );
 }
 
+/** Columns of the main plot the decimator fills (about its width in pixels). */
+const PLOT_COLUMNS = 900;
+
 const CURVE_MODELS = new Set(MODELS.filter((m) => m.family !== "straight-line").map((m) => m.id));
 
 interface Props {
@@ -72,7 +76,7 @@ interface Points {
 }
 
 export function FitWorkspace(props: Props) {
-  const { data, error, mutate } = useSWR<Points>(`/api/runs/${props.run.id}/series/${props.series.id}?full=1`, fetcher);
+  const { data, error, mutate } = useSWR<Points>(`/api/runs/${props.run.id}/series/${props.series.id}/points`, seriesPointsFetcher);
   return (
     <div>
       <header className="mb-6">
@@ -155,14 +159,12 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     }),
     [models, formula, starts, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength, useCalibration, calibrationConv, startConv],
   );
-  const { outcome, ms, where, busy: stale } = useSeriesFit(points.t, points.y, options as SeriesFitOptions);
+  const { result, busy: stale } = useSeriesFit(points.t, points.y, options as SeriesFitOptions);
+  const outcome = result?.outcome ?? null;
 
   const tScale = perMinute ? 60 : 1;
   const tLabel = perMinute ? "t (min)" : "t (s)";
-  const yUnit = fitUnits(outcome.quantity, options.conversion).y;
-  const yLabel = outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`;
   const conv = (v: number) => (options.conversion ? convertReading(v, options.conversion) : v);
-  const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
   const colour = solutionColour(run.wavelength_nm).hex;
 
   function setModelList(next: string[]) {
@@ -200,10 +202,10 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     router.push(`/fits/${body.id}`);
   }
 
-  const excludedSet = new Set(exclusions.map((e) => e.index));
+  const excludedSet = useMemo(() => new Set(exclusions.map((e) => e.index)), [exclusions]);
   const rate = useMemo(() => {
     const at = num(rateAt);
-    const fo = outcome.models.find((m) => m.model === "first-order" && m.result.converged);
+    const fo = outcome?.models.find((m) => m.model === "first-order" && m.result.converged);
     if (at === null || !fo) return null;
     const tAt = at * tScale;
     const p = Object.fromEntries(fo.result.parameters.map((q) => [q.name, q.value!])) as { a0: number; ainf: number; k: number };
@@ -211,20 +213,42 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     const span = (points.t.at(-1)! - points.t[0]!) * 0.05;
     let data: { rate: number; se: number; points: number } | null = null;
     try {
-      data = localTangentRate(points.t.filter((_, i) => outcome.included[i]), points.y.filter((_, i) => outcome.included[i]), tAt, span);
+      data = localTangentRate(points.t.filter((_, i) => outcome!.included[i]), points.y.filter((_, i) => outcome!.included[i]), tAt, span);
     } catch {
       data = null;
     }
     const yAt = modelById("first-order")!.curve!(Float64Array.of(tAt), p)[0]!;
     return { tAt, model, data, line: { x: [tAt - span * 2, tAt + span * 2], y: [yAt + model * span * 2, yAt - model * span * 2] } };
   }, [rateAt, outcome, tScale, points]);
-  const incIdx = points.t.map((_, i) => i).filter((i) => outcome.included[i]);
-  // Left out by the analyst (with a reason) and outside the fitting window are different things: different markers.
-  const exIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i] && excludedSet.has(i));
-  const outIdx = points.t.map((_, i) => i).filter((i) => !outcome.included[i] && !excludedSet.has(i));
-  const long = points.t.length > 2000;
-  const stride = long ? Math.ceil(points.t.length / 2000) : 1;
-  const show = (idx: number[]) => idx.filter((_, j) => j % stride === 0);
+  // Drawn: at most about three points per plot column of each kind (lib/plot/decimate.ts); fitted: every point.
+  const shownSets = useMemo(() => {
+    if (!outcome) return null;
+    const inc: number[] = [],
+      ex: number[] = [],
+      out: number[] = [];
+    for (let i = 0; i < points.t.length; i++) (outcome.included[i] ? inc : excludedSet.has(i) ? ex : out).push(i);
+    const thin = (idx: number[]) => decimateIndices(idx.map((i) => points.t[i]!), idx.map((i) => points.y[i]!), PLOT_COLUMNS).map((j) => idx[j]!);
+    return { inc: thin(inc), ex, out: thin(out), total: points.t.length };
+  }, [outcome, points, excludedSet]);
+  if (!outcome || !shownSets) {
+    return (
+      <div className="space-y-4" aria-label="Fitting the series" aria-busy="true" data-testid="first-fit">
+        <p className="text-sm text-ink-700">Fitting {points.t.length.toLocaleString("en")} points in a background worker…</p>
+        <div className="h-80 animate-pulse rounded-cell bg-paper-sunk" />
+        <div className="h-40 animate-pulse rounded-cell bg-paper-sunk" />
+      </div>
+    );
+  }
+  const { ms, where } = result!;
+  const yUnit = fitUnits(outcome.quantity, options.conversion).y;
+  const yLabel = outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`;
+  const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
+  const long = shownSets.inc.length + shownSets.out.length > 1500;
+  const show = (idx: number[]) => idx;
+  const incIdx = shownSets.inc,
+    exIdx = shownSets.ex,
+    outIdx = shownSets.out;
+  const thinned = shownSets.inc.length + shownSets.out.length + shownSets.ex.length < shownSets.total;
   const wFrom = num(windowFrom),
     wTo = num(windowTo);
   const linearView = outcome.linearized_view;
@@ -266,14 +290,17 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
               },
               ...outcome.models
                 .filter((m) => CURVE_MODELS.has(m.model) && m.result.converged)
-                .map((m, i) => ({
-                  type: long ? "scattergl" : "scatter",
-                  mode: "lines",
-                  name: `${m.model} fit`,
-                  x: Array.from(outcome.curves[m.model]!.t, (v) => v / tScale),
-                  y: Array.from(outcome.curves[m.model]!.fitted),
-                  line: { color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length], width: 2 },
-                })),
+                .map((m, i) => {
+                  const c = decimate(outcome.curves[m.model]!.t, outcome.curves[m.model]!.fitted, PLOT_COLUMNS);
+                  return {
+                    type: long ? "scattergl" : "scatter",
+                    mode: "lines",
+                    name: `${m.model} fit`,
+                    x: c.x.map((v) => v / tScale),
+                    y: c.y,
+                    line: { color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length], width: 2 },
+                  };
+                }),
               ...(rate
                 ? [{ type: "scatter", mode: "lines", name: "tangent (model)", x: rate.line.x.map((v) => v / tScale), y: rate.line.y, line: { color: "#1b2230", dash: "dash", width: 1.5 } }]
                 : []),
@@ -320,7 +347,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
             </div>
           )}
           <p className="mt-1 text-xs text-ink-500">
-            Click a point to exclude it (you will be asked why); click an excluded point (×) to restore it; open rings are outside the fitting window; or use the box-select tool to pick several. {long ? `Shown: every ${stride}th point; fits use all ${points.t.length.toLocaleString("en")}.` : ""}
+            Click a point to exclude it (you will be asked why); click an excluded point (×) to restore it; open rings are outside the fitting window; or use the box-select tool to pick several. {thinned ? `Shown: the first, lowest and highest reading of each plot column (${(incIdx.length + outIdx.length + exIdx.length).toLocaleString("en")} points); fits use all ${points.t.length.toLocaleString("en")}.` : ""}
           </p>
         </section>
 
@@ -332,7 +359,10 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
               height={220}
               data={outcome.models
                 .filter((m) => CURVE_MODELS.has(m.model) && m.result.converged)
-                .map((m, i) => ({ type: "scatter", mode: "markers", name: m.model, x: Array.from(outcome.curves[m.model]!.t, (v) => v / tScale), y: Array.from(outcome.curves[m.model]!.residuals), marker: { size: 5, color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length] } })) as never}
+                .map((m, i) => {
+                  const r = decimate(outcome.curves[m.model]!.t, outcome.curves[m.model]!.residuals, PLOT_COLUMNS / 2);
+                  return { type: long ? "scattergl" : "scatter", mode: "markers", name: m.model, x: r.x.map((v) => v / tScale), y: r.y, marker: { size: 5, color: CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length] } };
+                }) as never}
               layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "y − fitted" }, zeroline: true } } as never}
             />
           </div>
@@ -343,7 +373,10 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
                 label="ln|y − A∞| against time"
                 height={220}
                 data={[
-                  { type: "scatter", mode: "markers", name: "ln|y − A∞|", x: Array.from(linearView.t, (v) => v / tScale), y: Array.from(linearView.ln), marker: { size: 5, color: colour } },
+                  (() => {
+                    const v = decimate(linearView.t, linearView.ln, PLOT_COLUMNS / 2);
+                    return { type: long ? "scattergl" : "scatter", mode: "markers", name: "ln|y − A∞|", x: v.x.map((q) => q / tScale), y: v.y, marker: { size: 5, color: colour } };
+                  })(),
                   { type: "scatter", mode: "lines", name: "line", x: linearView.line.t.map((v) => v / tScale), y: linearView.line.ln, line: { color: "#d55e00" } },
                 ] as never}
                 layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "ln|y − A∞|" } } } as never}

@@ -1,55 +1,65 @@
 "use client";
-// The workspace's fits: computed in a Web Worker (falling back to the main thread where workers are unavailable), with
-// the last result kept on screen while a newer one is on its way.
+// The workspace's fits: computed only in a Web Worker (the main thread stays free for the page; it fits itself only
+// where workers are unavailable). A newer option cancels the fit under way: that worker is ended and a new one takes
+// the series and the newest options. The last result stays on screen, marked as re-fitting, until the new one lands.
 import { useEffect, useMemo, useRef, useState } from "react";
 import { fitSeriesWithOptions, type SeriesFitOptions, type SeriesFitOutcome } from "@/lib/kinetics/workspace";
+
+type Result = { outcome: SeriesFitOutcome; ms: number | null; where: "worker" | "page" };
 
 export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions) {
   const tArr = useMemo(() => Float64Array.from(t), [t]);
   const yArr = useMemo(() => Float64Array.from(y), [y]);
-  // The first result is computed right away so the page never shows an empty table.
-  const [state, setState] = useState<{ outcome: SeriesFitOutcome; ms: number | null; where: "worker" | "page" }>(() => {
+  const hasWorker = typeof Worker !== "undefined";
+  const [state, setState] = useState<Result | null>(() => {
+    if (hasWorker) return null;
     const started = performance.now();
-    const outcome = fitSeriesWithOptions(tArr, yArr, options);
-    return { outcome, ms: performance.now() - started, where: "page" };
+    return { outcome: fitSeriesWithOptions(tArr, yArr, options), ms: performance.now() - started, where: "page" };
   });
-  const [busy, setBusy] = useState(false);
-  const worker = useRef<Worker | null>(null);
+  const [busy, setBusy] = useState(hasWorker);
+  const worker = useRef<{ w: Worker; busy: boolean } | null>(null);
   const seq = useRef(0);
-
-  useEffect(() => {
-    if (typeof Worker === "undefined") return;
-    const w = new Worker(new URL("./fit.worker.ts", import.meta.url), { type: "module" });
-    w.postMessage({ type: "data", t: tArr, y: yArr });
-    w.onmessage = (e: MessageEvent<{ id: number; outcome?: SeriesFitOutcome; ms?: number; error?: string }>) => {
-      if (e.data.id !== seq.current) return; // a newer request is on its way
-      setBusy(false);
-      if (e.data.outcome) setState({ outcome: e.data.outcome, ms: e.data.ms ?? null, where: "worker" });
-    };
-    worker.current = w;
-    return () => {
-      w.terminate();
-      worker.current = null;
-    };
-  }, [tArr, yArr]);
-
   const key = JSON.stringify(options);
-  const first = useRef(true);
+
   useEffect(() => {
-    if (first.current) {
-      first.current = false;
+    const parsed = JSON.parse(key) as SeriesFitOptions;
+    const id = ++seq.current;
+    if (typeof Worker === "undefined") {
+      const started = performance.now();
+      const outcome = fitSeriesWithOptions(tArr, yArr, parsed);
+      queueMicrotask(() => setState({ outcome, ms: performance.now() - started, where: "page" }));
       return;
     }
-    const id = ++seq.current;
-    const parsed = JSON.parse(key) as SeriesFitOptions;
-    if (worker.current) {
-      setBusy(true);
-      worker.current.postMessage({ type: "fit", id, options: parsed });
-    } else {
-      const started = performance.now();
-      setState({ outcome: fitSeriesWithOptions(tArr, yArr, parsed), ms: performance.now() - started, where: "page" });
+    // A worker still fitting older options is ended (cancelled), not waited for.
+    if (worker.current?.busy) {
+      worker.current.w.terminate();
+      worker.current = null;
     }
+    if (!worker.current) {
+      const w = new Worker(new URL("./fit.worker.ts", import.meta.url), { type: "module" });
+      w.postMessage({ type: "data", t: tArr, y: yArr });
+      const slot = { w, busy: false };
+      w.onmessage = (e: MessageEvent<{ id: number; outcome?: SeriesFitOutcome; ms?: number; error?: string }>) => {
+        slot.busy = false;
+        if (e.data.id !== seq.current) return; // a newer request is on its way
+        setBusy(false);
+        if (e.data.outcome) setState({ outcome: e.data.outcome, ms: e.data.ms ?? null, where: "worker" });
+      };
+      worker.current = slot;
+    }
+    worker.current.busy = true;
+    queueMicrotask(() => setBusy(true));
+    worker.current.w.postMessage({ type: "fit", id, options: parsed });
   }, [key, tArr, yArr]);
 
-  return { ...state, busy };
+  // A new series (or leaving the page) ends the worker.
+  useEffect(
+    () => () => {
+      worker.current?.w.terminate();
+      worker.current = null;
+    },
+    [tArr, yArr],
+  );
+
+  return { result: state, busy };
 }

@@ -40,7 +40,7 @@ export function RunChannelsPlot({ runId, series, wavelength }: { runId: number; 
       />
       {decimated.length > 0 && (
         <p className="mt-1 text-xs text-ink-500">
-          For display only: {decimated.map((s) => `${s.name} shows ${s.decimated!.shown.toLocaleString("en")} of ${s.points.toLocaleString("en")} points`).join("; ")} (LTTB). Fits use every point.
+          For display only: {decimated.map((s) => `${s.name} shows ${s.decimated!.shown.toLocaleString("en")} of ${s.points.toLocaleString("en")} points`).join("; ")} (the lowest and highest reading per column of the plot). Fits use every point.
         </p>
       )}
     </>

@@ -26,3 +26,29 @@ export async function fetcher<T>(url: string): Promise<T> {
   }
   return (await res.json()) as T;
 }
+
+/** Every point of a series from its binary endpoint (n float64 times, then n readings, little-endian). */
+export async function seriesPointsFetcher(url: string): Promise<{ t: number[]; y: number[] }> {
+  const res = await fetch(url, { headers: { accept: "application/octet-stream" } });
+  if (!res.ok) {
+    let message = `The server answered ${res.status}.`;
+    try {
+      const body = (await res.json()) as { error?: { message?: string } };
+      if (body.error?.message) message = body.error.message;
+    } catch {
+      // not JSON
+    }
+    throw new FetchError(message, res.status);
+  }
+  const buf = await res.arrayBuffer();
+  const n = Number(res.headers.get("x-series-points") ?? buf.byteLength / 16);
+  if (!Number.isInteger(n) || buf.byteLength !== 16 * n) throw new FetchError(`The series arrived cut short (${buf.byteLength} bytes for ${n} points); reload the page.`, 502);
+  const view = new DataView(buf);
+  const t = new Array<number>(n),
+    y = new Array<number>(n);
+  for (let i = 0; i < n; i++) {
+    t[i] = view.getFloat64(8 * i, true);
+    y[i] = view.getFloat64(8 * (n + i), true);
+  }
+  return { t, y };
+}

@@ -1,9 +1,10 @@
 // The plot a reviewer signs: the data (fitted points as dots, points outside the fit as open rings), the fitted curve,
 // and the residuals below, with axes, ticks and units. One scene, drawn two ways: as SVG on the record and share pages
-// (server-rendered, no script needed) and as vector paths in the PDF. Points are thinned to at most one pair per pixel
-// column (the lowest and highest reading of each), so a million-point run draws as fast as a small one and no spike
-// disappears.
+// (server-rendered, no script needed) and as vector paths in the PDF. Points are thinned by the app's one decimator
+// (lib/plot/decimate.ts: the first, lowest and highest reading per pixel column), so a million-point run draws as fast
+// as a small one and no spike disappears.
 import { MODELS } from "@/lib/kinetics/models";
+import { decimateIndices } from "@/lib/plot/decimate";
 import { convertReading } from "@/lib/kinetics/workspace";
 import type { FitOptions } from "@/lib/schemas/fits";
 import type { StoredResults } from "@/lib/fits";
@@ -86,26 +87,6 @@ export function ticks(lo: number, hi: number, count: number): { values: number[]
   return { values, lo: first * step, hi: last * step, ticks: (map) => values.map((v) => ({ at: map(v), label: tickLabel(v, step) })) };
 }
 
-/** Per pixel column, the first, lowest and highest point (and every point when there are few). */
-function thin(xs: Float64Array, ys: Float64Array, keep: boolean[], columns: number, x0: number, x1: number): number[] {
-  if (xs.length <= columns * 2) return Array.from({ length: xs.length }, (_, i) => i);
-  const out: number[] = [];
-  const lo = new Int32Array(columns).fill(-1),
-    hi = new Int32Array(columns).fill(-1),
-    outside = new Int32Array(columns).fill(-1);
-  for (let i = 0; i < xs.length; i++) {
-    const c = Math.min(columns - 1, Math.max(0, Math.floor(((xs[i]! - x0) / (x1 - x0 || 1)) * columns)));
-    if (!keep[i]) {
-      if (outside[c] === -1) outside[c] = i;
-      continue;
-    }
-    if (lo[c] === -1 || ys[i]! < ys[lo[c]!]!) lo[c] = i;
-    if (hi[c] === -1 || ys[i]! > ys[hi[c]!]!) hi[c] = i;
-  }
-  for (let c = 0; c < columns; c++) for (const i of new Set([lo[c]!, hi[c]!, outside[c]!])) if (i >= 0) out.push(i);
-  return out.sort((a, b) => a - b);
-}
-
 /** The y axis's words: the quantity and its unit. */
 export function plotAxisLabel(quantity: string, unit: string): string {
   return `${quantity === "concentration" ? "concentration" : "absorbance"} (${unit})`;
@@ -184,7 +165,7 @@ export function fitPlotScene(input: FitPlotInput, size = { width: 720, height: 4
   const Y = (v: number) => mainTop + mainH - ((v - ty.lo) / (ty.hi - ty.lo || 1)) * mainH;
 
   const tShown = Float64Array.from(t, (v) => v * tScale);
-  const idx = thin(tShown, y, included, Math.round(plotW), tx.lo, tx.hi);
+  const idx = decimateIndices(tShown, y, Math.round(plotW), (i) => included[i]!);
   const mainPanel: Panel = {
     x: margin.left,
     y: mainTop,
@@ -222,7 +203,7 @@ export function fitPlotScene(input: FitPlotInput, size = { width: 720, height: 4
   const tr = ticks(-(rMax || 1), rMax || 1, 4);
   const resTop = mainTop + mainH + gap;
   const YR = (v: number) => resTop + resH - ((v - tr.lo) / (tr.hi - tr.lo || 1)) * resH;
-  const ridx = curve ? thin(tShown, res, included, Math.round(plotW), tx.lo, tx.hi) : [];
+  const ridx = curve ? decimateIndices(tShown, res, Math.round(plotW)) : [];
   const resPanel: Panel = {
     x: margin.left,
     y: resTop,

@@ -1,9 +1,9 @@
-// Reading stored runs: the paged list, one run with its series, a series' points (decimated for display with the
-// `downsample` package's LTTB; full data on request) and the original file.
+// Reading stored runs: the paged list, one run with its series, a series' points (decimated for display by the app's
+// one decimator, lib/plot/decimate.ts; every point as binary little-endian float64 for fits) and the original file.
 import { createHash } from "node:crypto";
 import type { Knex } from "knex";
-import { LTTB } from "downsample";
 import { getRawFile, getRun, getSeriesWithPoints, listRuns, listSeriesOfRun, unpackF64 } from "@/db/queries/runs";
+import { decimate } from "@/lib/plot/decimate";
 import { readRawBytes } from "@/lib/storage/raw-store";
 import { AppError } from "@/lib/errors";
 import type { RunDetail, RunFields, RunListQuery, RunSummary, SeriesSummary } from "@/lib/schemas/runs";
@@ -85,17 +85,23 @@ export async function readSeries(db: Knex, labId: number, runId: number, seriesI
   return { row: s, t: unpackF64(s.t_f64), y: unpackF64(s.y_f64) };
 }
 
-export async function seriesForDisplay(db: Knex, labId: number, runId: number, seriesId: number, opts: { maxPoints?: number; full?: boolean }) {
+/** A series' stored points as they are kept (little-endian float64 BLOBs), for the binary endpoint. */
+export async function seriesBinary(db: Knex, labId: number, runId: number, seriesId: number): Promise<{ points: number; t: Buffer; y: Buffer }> {
+  const s = await getSeriesWithPoints(db, labId, runId, seriesId);
+  if (!s) throw new AppError({ code: "not_found", message: `There is no series ${seriesId} in run ${runId}.` });
+  return { points: s.point_count, t: Buffer.from(s.t_f64), y: Buffer.from(s.y_f64) };
+}
+
+export async function seriesForDisplay(db: Knex, labId: number, runId: number, seriesId: number, opts: { maxPoints?: number }) {
   const { row, t, y } = await readSeries(db, labId, runId, seriesId);
-  const limit = opts.full ? Infinity : (opts.maxPoints ?? DISPLAY_POINTS);
+  const limit = opts.maxPoints ?? DISPLAY_POINTS;
   let tx: number[], yx: number[];
   if (t.length <= limit) {
     tx = Array.from(t);
     yx = Array.from(y);
   } else {
-    const pts = LTTB(Array.from(t, (ti, i) => [ti, y[i]!] as [number, number]), limit) as Array<[number, number]>;
-    tx = pts.map((p) => p[0]);
-    yx = pts.map((p) => p[1]);
+    // Half the limit in buckets: each gives at most three points (first, lowest, highest), most give two.
+    ({ x: tx, y: yx } = decimate(t, y, Math.max(1, Math.floor(limit / 3))));
   }
   return {
     id: row.id,
@@ -103,7 +109,7 @@ export async function seriesForDisplay(db: Knex, labId: number, runId: number, s
     quantity: row.quantity,
     unit: row.unit,
     points: row.point_count,
-    decimated: tx.length < row.point_count ? { method: "LTTB", shown: tx.length } : null,
+    decimated: tx.length < row.point_count ? { method: "min/max per bucket", shown: tx.length } : null,
     t: tx,
     y: yx,
   };

@@ -58,8 +58,8 @@ export const runListQuerySchema = z.object({
 export type RunListQuery = z.infer<typeof runListQuerySchema>;
 
 export const seriesPointsQuerySchema = z.object({
-  maxPoints: z.coerce.number().int().min(10).max(2_000_000).optional(),
-  full: z.enum(["1", "true"]).optional(),
+  /** For display: every point goes out as binary from …/points, never as JSON. */
+  maxPoints: z.coerce.number().int().min(10).max(20_000).optional(),
 });
 
 /** The run columns the API shows, as stored (the row type is the one source of their names and types). */

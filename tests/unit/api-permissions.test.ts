@@ -82,6 +82,7 @@ const ROUTES: Record<string, RouteCase> = {
     },
   },
   "app/api/runs/[id]/route.ts": { methods: { GET: { permission: "run:read", url: "/api/runs/1", params: { id: "1" } } } },
+  "app/api/runs/[id]/series/[sid]/points/route.ts": { methods: { GET: { permission: "run:read", url: "/api/runs/1/series/1/points", params: { id: "1", sid: "1" } } } },
   "app/api/runs/[id]/series/[sid]/route.ts": {
     methods: { GET: { permission: "run:read", url: "/api/runs/1/series/1?maxPoints=50", params: { id: "1", sid: "1" } } },
   },

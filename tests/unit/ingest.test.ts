@@ -112,9 +112,26 @@ describe("preview and store", () => {
     const { GET } = await import("@/app/api/runs/[id]/series/[sid]/route");
     const res = await GET(new Request(`http://halflight.test/api/runs/${r.run_id}/series/${r.series[0]!.id}?maxPoints=500`), ctx({ id: String(r.run_id), sid: String(r.series[0]!.id) }));
     const body = await res.json();
-    expect(body.t).toHaveLength(500);
-    expect(body.decimated).toEqual({ method: "LTTB", shown: 500 });
+    expect(body.t.length).toBeLessThanOrEqual(500);
+    expect(body.t.length).toBeGreaterThan(250);
+    expect(body.decimated).toEqual({ method: "min/max per bucket", shown: body.t.length });
     expect(body.points).toBe(n);
+    // Every point for fitting, as binary: n little-endian float64 times, then n readings, equal to the stored arrays.
+    const bin = await import("@/app/api/runs/[id]/series/[sid]/points/route");
+    const raw = await bin.GET(new Request(`http://halflight.test/api/runs/${r.run_id}/series/${r.series[0]!.id}/points`), ctx({ id: String(r.run_id), sid: String(r.series[0]!.id) }));
+    expect(raw.headers.get("content-type")).toBe("application/octet-stream");
+    expect(raw.headers.get("x-series-points")).toBe(String(n));
+    const buf = await raw.arrayBuffer();
+    expect(buf.byteLength).toBe(16 * n);
+    const view = new DataView(buf);
+    for (const i of [0, 1, 12345, n - 1]) {
+      expect(view.getFloat64(8 * i, true)).toBe(t[i]);
+      expect(view.getFloat64(8 * (n + i), true)).toBe(y[i]);
+    }
+    expect(Buffer.from(buf).equals(Buffer.concat([Buffer.from(row.t_f64), Buffer.from(row.y_f64)]))).toBe(true);
+    // JSON of every point is no longer offered: the display view is bounded.
+    const big = await GET(new Request(`http://halflight.test/api/runs/${r.run_id}/series/${r.series[0]!.id}?maxPoints=2000000`), ctx({ id: String(r.run_id), sid: String(r.series[0]!.id) }));
+    expect(big.status).toBe(422);
   });
 
   it("subtracts a blank channel at equal times and records it", async () => {
