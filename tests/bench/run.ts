@@ -1,11 +1,12 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits` or `-- global` runs one part.
+// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global` or `-- series` runs one part.
 import { benchAudit } from "./audit";
 import { benchEngine } from "./engine";
 import { benchFormula } from "./formula";
 import { benchGlobal } from "./global";
 import { benchIngest } from "./ingest";
 import { benchLimits } from "./limits";
+import { benchSeries } from "./series";
 
 const only = process.argv[2];
 console.log(`Halflight benchmarks on Node ${process.version}, ${process.platform}/${process.arch}`);
@@ -16,6 +17,7 @@ if (!only || only === "global") benchGlobal();
 (async () => {
   if (!only || only === "audit") await benchAudit();
   if (!only || only === "limits") await benchLimits();
+  if (!only || only === "series") await benchSeries();
 })().catch((e: unknown) => {
   console.error(e);
   process.exitCode = 1;
