@@ -229,9 +229,10 @@ function FileCard({ item, methods, onMapping, onSave, onTimeColumn }: { item: It
                 data={p.series.map((s, i) => ({ type: "scatter", mode: s.points > 200 ? "lines" : "lines+markers", name: s.name, x: s.t, y: s.y, marker: { size: 4, color: p.series.length === 1 ? base : CHANNEL_PALETTE[i % CHANNEL_PALETTE.length] } }))}
                 layout={{ xaxis: { title: { text: "t (s)" } }, yaxis: { title: { text: p.series[0]?.unit === "AU" ? "A (AU)" : (p.series[0]?.unit ?? "") } } }}
               />
-              <div className="relative mt-3 overflow-x-auto">
+              <p className="mt-3 text-xs text-ink-700">The first readings as they will be stored (time converted to seconds), to check against the file&apos;s lines:</p>
+              <div className="relative mt-1 overflow-x-auto">
                 <table className="text-xs" data-testid="parsed-numbers">
-                  <caption className="mb-1 text-left text-xs text-ink-700">The first readings as they will be stored (time converted to seconds), to check against the lines above.</caption>
+                  <caption className="sr-only">The first readings as they will be stored</caption>
                   <thead>
                     <tr className="text-left text-ink-700">
                       {p.series.map((s) => (

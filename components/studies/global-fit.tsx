@@ -1,7 +1,7 @@
 // "All curves fitted together" beside the two-stage result: Ea and kref (temperature studies) or k2 (excess series) from
 // one least-squares fit over every member's points, their correlation, each run's k and share of the residuals, and
 // whether the two routes agree within their uncertainties.
-import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
+import { formatNumber, formatSeconds, formatWithUncertainty } from "@/lib/format/number";
 import type { StudyGlobal } from "@/lib/studies";
 
 export function GlobalFitSection({ g, twoStage, residualSvg }: { g: StudyGlobal | undefined; twoStage: { value: number; se: number | null }; residualSvg?: string | null }) {
@@ -104,7 +104,7 @@ export function GlobalFitSection({ g, twoStage, residualSvg }: { g: StudyGlobal 
           {g.prediction && (
             <p className="mt-4 text-sm" data-testid="global-prediction">
               From the global fit at {g.prediction.target_c} °C: k = {formatNumber(g.prediction.k, 4)} s⁻¹ (95 % confidence interval of the mean rate {formatNumber(g.prediction.ci95[0], 3)} …{" "}
-              {formatNumber(g.prediction.ci95[1], 3)}), t90 {formatNumber(g.prediction.t90_s / 3600, 3)} h{g.prediction.extrapolated ? "; extrapolated beyond the measured temperatures" : ""}.
+              {formatNumber(g.prediction.ci95[1], 3)}), t90 {formatSeconds(g.prediction.t90_s)}{g.prediction.extrapolated ? "; extrapolated beyond the measured temperatures" : ""}.
             </p>
           )}
           {residualSvg && (

@@ -99,7 +99,10 @@ export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<nu
   const readingRange: [number, number] | null = t.length ? [lo, hi] : null;
   const notes: string[] = [];
   if (excluded.size) notes.push(`${excluded.size} point(s) excluded by the analyst, each with a reason.`);
-  if (o.window && (o.window.from != null || o.window.to != null)) notes.push(`Fitting window ${o.window.from ?? "start"} s to ${o.window.to ?? "end"} s.`);
+  if (o.window && (o.window.from != null || o.window.to != null)) {
+    const at = (s: number) => (s >= 120 ? `${Number((s / 60).toPrecision(6))} min (${s} s)` : `${s} s`);
+    notes.push(`Fitting window: ${o.window.from != null ? `from ${at(o.window.from)}` : "from the first reading"} ${o.window.to != null ? `to ${at(o.window.to)}` : "to the last reading"}.`);
+  }
   if (o.conversion?.kind === "beer-lambert")
     notes.push(`Absorbance converted to concentration by Beer–Lambert: ε = ${o.conversion.epsilon} L mol⁻¹ cm⁻¹, b = ${o.conversion.pathLengthCm} cm${o.conversion.blank ? `, blank ${o.conversion.blank}` : ""}.`);
   if (o.conversion?.kind === "calibration")

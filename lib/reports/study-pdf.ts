@@ -5,7 +5,7 @@ import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
 import { auditSentence } from "@/lib/audit/sentences";
-import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
+import { formatNumber, formatSeconds, formatWithUncertainty } from "@/lib/format/number";
 import { verifyStudyVersion } from "@/lib/integrity";
 import { listComments, reviewStatus } from "@/lib/reviews";
 import { getStudyRecord, PREDICTION_CAUTION, type StudyGlobal } from "@/lib/studies";
@@ -14,7 +14,7 @@ import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts"
 import { ratePlotScene, residualPanelsScene } from "./rate-plot";
 
 const kj = (v: number | null | undefined) => (v === null || v === undefined ? null : v / 1000);
-const hours = (s: number) => (s >= 86400 * 2 ? `${formatNumber(s / 86400, 3)} d` : `${formatNumber(s / 3600, 3)} h`);
+const hours = (s: number) => (s >= 86400 * 2 ? `${formatNumber(s / 86400, 3)} d` : formatSeconds(s));
 
 interface TemperatureResults {
   n: number;
