@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
+import { problemText, sendJson } from "@/lib/http/client";
 
 interface Key {
   id: number;
@@ -24,17 +25,22 @@ export function ApiKeys({ keys }: { keys: Key[] }) {
   const [name, setName] = useState("");
   const [fresh, setFresh] = useState<{ name: string; key: string } | null>(null);
   async function create() {
-    const res = await fetch("/api/admin/api-keys", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ name }) });
-    const body = await res.json();
-    if (!res.ok) return toast(body.error?.issues?.[0]?.message ?? body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let body: { name: string; key: string };
+    try {
+      body = await sendJson<{ name: string; key: string }>("/api/admin/api-keys", { body: { name } });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
     setFresh({ name: body.name, key: body.key });
     setName("");
     router.refresh();
   }
   async function revoke(id: number) {
-    const res = await fetch(`/api/admin/api-keys/${id}`, { method: "DELETE" });
-    const body = await res.json();
-    if (!res.ok) return toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    try {
+      await sendJson(`/api/admin/api-keys/${id}`, { method: "DELETE" });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
     toast("Key revoked: it no longer works.", "pass");
     router.refresh();
   }

@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import type { LabIntegrity } from "@/lib/integrity";
+import { problemText, sendJson } from "@/lib/http/client";
 
 export function IntegrityCheck() {
   const [busy, setBusy] = useState(false);
@@ -13,12 +14,9 @@ export function IntegrityCheck() {
     setBusy(true);
     setError(null);
     try {
-      const res = await fetch("/api/admin/integrity", { method: "POST", headers: { "content-type": "application/json" }, body: "{}" });
-      const body = (await res.json()) as LabIntegrity | { error?: { message?: string } };
-      if (!res.ok || !("intact" in body)) setError(("error" in body && body.error?.message) || `The server answered ${res.status}.`);
-      else setResult(body);
-    } catch {
-      setError("The check could not reach the server. Check the connection and try again.");
+      setResult(await sendJson<LabIntegrity>("/api/admin/integrity", { body: {} }));
+    } catch (e) {
+      setError(problemText(e));
     } finally {
       setBusy(false);
     }

@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Input, Select } from "@/components/ui/field";
 import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
+import { problemText, sendJson } from "@/lib/http/client";
 
 interface Invitation {
   id: number;
@@ -31,19 +32,25 @@ export function Invitations({ invitations, roles }: { invitations: Invitation[];
 
   async function invite() {
     setBusy(true);
-    const res = await fetch("/api/admin/invitations", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, name, role, days: Number(days) }) });
-    const body = await res.json();
-    setBusy(false);
-    if (!res.ok) return toast(body.error?.issues?.[0]?.message ?? body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let body: { mailed: boolean };
+    try {
+      body = await sendJson<{ mailed: boolean }>("/api/admin/invitations", { body: { email, name, role, days: Number(days) } });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    } finally {
+      setBusy(false);
+    }
     toast(body.mailed ? `Invitation sent to ${email}.` : `Invitation saved, but no mail server is configured: ${email} has not been told.`, body.mailed ? "pass" : "fault");
     setEmail("");
     setName("");
     router.refresh();
   }
   async function withdraw(id: number) {
-    const res = await fetch(`/api/admin/invitations/${id}`, { method: "DELETE" });
-    const body = await res.json();
-    if (!res.ok) return toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    try {
+      await sendJson(`/api/admin/invitations/${id}`, { method: "DELETE" });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
     toast("Invitation withdrawn.", "pass");
     router.refresh();
   }

@@ -5,6 +5,7 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
+import { problemLines, sendJson } from "@/lib/http/client";
 
 export function LabSettingsForm({ initial }: { initial: { outside_links: boolean; default_link_days: number; upload_limit_mb: number; password_min_length: number } }) {
   const router = useRouter();
@@ -17,14 +18,10 @@ export function LabSettingsForm({ initial }: { initial: { outside_links: boolean
   const [errors, setErrors] = useState<string[]>([]);
   async function save() {
     setErrors([]);
-    const res = await fetch("/api/admin/settings", {
-      method: "PUT",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ outside_links: outside, default_link_days: Number(days), upload_limit_mb: Number(upload), password_min_length: Number(pw), reason }),
-    });
-    const body = await res.json();
-    if (!res.ok) {
-      setErrors(body.error?.issues?.map((i: { path: string; message: string }) => `${i.path}: ${i.message}`) ?? [body.error?.message]);
+    try {
+      await sendJson("/api/admin/settings", { method: "PUT", body: { outside_links: outside, default_link_days: Number(days), upload_limit_mb: Number(upload), password_min_length: Number(pw), reason } });
+    } catch (e) {
+      setErrors(problemLines(e));
       return;
     }
     toast("Settings saved, and written to the audit trail.", "pass");

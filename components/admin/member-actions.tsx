@@ -6,6 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
+import { problemText, useSend } from "@/lib/http/client";
 
 type Action = "unlock" | "deactivate" | "reactivate" | "role";
 
@@ -15,12 +16,15 @@ export function MemberActions({ member, roles, self }: { member: { userId: numbe
   const [action, setAction] = useState<Action | null>(null);
   const [role, setRole] = useState(member.role);
   const [reason, setReason] = useState("");
+  const change = useSend<{ action: Action | null; reason: string; role?: string }>(`/api/admin/members/${member.userId}`);
   if (self) return <span className="text-xs text-ink-500">your own account</span>;
 
   async function send() {
-    const res = await fetch(`/api/admin/members/${member.userId}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ action, reason, ...(action === "role" ? { role } : {}) }) });
-    const out = await res.json();
-    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    try {
+      await change.trigger({ action, reason, ...(action === "role" ? { role } : {}) });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
     toast("Saved, and written to the audit trail.", "pass");
     setAction(null);
     setReason("");
@@ -55,7 +59,7 @@ export function MemberActions({ member, roles, self }: { member: { userId: numbe
             <Button variant="secondary" onClick={() => setAction(null)}>
               Cancel
             </Button>
-            <Button type="submit" disabled={reason.trim().length < 3}>
+            <Button type="submit" disabled={change.isMutating || reason.trim().length < 3}>
               Save
             </Button>
           </div>

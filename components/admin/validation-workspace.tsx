@@ -12,6 +12,7 @@ import { useToast } from "@/components/ui/toast";
 import { fetcher } from "@/lib/http/fetcher";
 import type { JobView } from "@/lib/jobs/background";
 import type { ValidationRecord } from "@/lib/validation/records";
+import { problemText, sendJson } from "@/lib/http/client";
 
 interface RunRow {
   id: number;
@@ -53,21 +54,21 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
   async function run() {
     setStarting(true);
     try {
-      const res = await fetch("/api/validation", { method: "POST" });
-      const out = await res.json();
-      if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+      const out = await sendJson<{ job: JobView }>("/api/validation");
       setJobId(out.job.id);
-    } catch {
-      toast("The server could not be reached; nothing was started.", "fault");
+    } catch (e) {
+      toast(problemText(e), "fault");
     } finally {
       setStarting(false);
     }
   }
   async function sign() {
     if (!record) return;
-    const res = await fetch(`/api/validation/${record.id}/sign`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ password }) });
-    const out = await res.json();
-    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    try {
+      await sendJson(`/api/validation/${record.id}/sign`, { body: { password } });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
     setPassword("");
     toast("Report signed.", "pass");
     router.refresh();

@@ -25,6 +25,7 @@ import type { FitOptions } from "@/lib/schemas/fits";
 import type { MethodForRun } from "@/lib/schemas/methods";
 import { decimateIndices, decimate } from "@/lib/plot/decimate";
 import { useSeriesFit } from "./use-fit";
+import { problemText, sendJson } from "@/lib/http/client";
 
 const num = parseDecimalField;
 
@@ -187,16 +188,14 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
 
   async function save() {
     setSaving(true);
-    const res = await fetch("/api/fits", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ runId: run.id, seriesId: series.id, title, options, ...(from ? { previousId: from.id, reason: saveReason } : {}) }),
-    });
-    const body = await res.json();
-    setSaving(false);
-    if (!res.ok) {
-      toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let body: { id: number; version: number; unchanged?: boolean };
+    try {
+      body = await sendJson<{ id: number; version: number; unchanged?: boolean }>("/api/fits", { body: { runId: run.id, seriesId: series.id, title, options, ...(from ? { previousId: from.id, reason: saveReason } : {}) } });
+    } catch (e) {
+      toast(problemText(e), "fault");
       return;
+    } finally {
+      setSaving(false);
     }
     toast(body.unchanged ? "Nothing changed: the newest version already holds these options." : `Saved as version ${body.version}.`, "pass");
     router.push(`/fits/${body.id}`);

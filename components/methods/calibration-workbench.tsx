@@ -13,6 +13,7 @@ import { useToast } from "@/components/ui/toast";
 import { parseDecimalField } from "@/lib/format/input";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { calibrate, inversePredict, type Calibration, type CalibrationWeighting, type SigmaSource } from "@/lib/kinetics/quantities";
+import { problemText, sendJson } from "@/lib/http/client";
 
 export interface StandardRow {
   concentration: string;
@@ -105,26 +106,16 @@ export function CalibrationWorkbench({ saved, canSave }: { saved?: Saved; canSav
 
   async function save() {
     setSaving(true);
-    const res = await fetch("/api/calibrations", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({
-        name,
-        analyte,
-        concentration_unit: unit,
-        wavelength_nm: toNumber(wavelength) || null,
-        standards,
-        through_origin: origin,
-        weighting,
-        sigma,
-        blank_sd: toNumber(blankSd) || null,
-      }),
-    });
-    const body = await res.json();
-    setSaving(false);
-    if (!res.ok) {
-      toast(body.error?.issues?.[0] ? `${body.error.issues[0].path}: ${body.error.issues[0].message}` : (body.error?.message ?? `The server answered ${res.status}.`), "fault");
+    let body: { id: number };
+    try {
+      body = await sendJson<{ id: number }>("/api/calibrations", {
+        body: { name, analyte, concentration_unit: unit, wavelength_nm: toNumber(wavelength) || null, standards, through_origin: origin, weighting, sigma, blank_sd: toNumber(blankSd) || null },
+      });
+    } catch (e) {
+      toast(problemText(e), "fault");
       return;
+    } finally {
+      setSaving(false);
     }
     toast("Calibration saved.", "pass");
     router.push(`/methods/calibrations/${body.id}`);

@@ -10,6 +10,7 @@ import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/fo
 import type { Criterion } from "@/lib/kinetics/criteria";
 import { DEFAULT_METHOD_MODELS, MODELS } from "@/lib/kinetics/models";
 import type { MethodDefinition } from "@/lib/schemas/methods";
+import { problemLines, problemText, sendJson } from "@/lib/http/client";
 
 const num = parseDecimalField;
 
@@ -100,18 +101,16 @@ export function MethodForm({
   async function save() {
     setSaving(true);
     setErrors([]);
-    const res = await fetch(versionOf ? `/api/methods/${versionOf.id}` : "/api/methods", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify(versionOf ? { definition: definition(), reason } : { definition: definition() }),
-    });
-    const body = await res.json();
-    setSaving(false);
-    if (!res.ok) {
-      const list = body.error?.issues?.length ? body.error.issues.map((i: { path: string; message: string }) => `${i.path.replace(/^definition\./, "")}: ${i.message}`) : [body.error?.message ?? `The server answered ${res.status}.`];
+    let body: { id: number; version: number };
+    try {
+      body = await sendJson<{ id: number; version: number }>(versionOf ? `/api/methods/${versionOf.id}` : "/api/methods", { body: versionOf ? { definition: definition(), reason } : { definition: definition() } });
+    } catch (e) {
+      const list = problemLines(e, /^definition\./);
       setErrors(list);
-      toast(list[0], "fault");
+      toast(list[0]!, "fault");
       return;
+    } finally {
+      setSaving(false);
     }
     toast(`Saved as version ${body.version}.`, "pass");
     router.push(`/methods/${body.id}`);

@@ -10,6 +10,7 @@ import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { fetcher } from "@/lib/http/fetcher";
 import type { ReviewStatus } from "@/lib/reviews";
+import { problemText, sendJson } from "@/lib/http/client";
 
 type Act = "submit" | "approve" | "reject" | "withdraw" | null;
 const TONE = { draft: "neutral", submitted: "accent", approved: "pass", rejected: "fault", withdrawn: "caution" } as const;
@@ -32,20 +33,13 @@ export function ReviewPanel({ record, isAuthor, mayDecide, maySubmit }: { record
 
   async function send(url: string, body: unknown, done: string) {
     setBusy(true);
-    let res: Response;
-    let out: { error?: { message?: string } };
     try {
-      res = await fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-      out = await res.json();
-    } catch {
-      toast("The server could not be reached; nothing was signed or saved. Try again.", "fault");
+      await sendJson(url, { body });
+    } catch (e) {
+      toast(problemText(e), "fault");
       return false;
     } finally {
       setBusy(false);
-    }
-    if (!res.ok) {
-      toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
-      return false;
     }
     toast(done, "pass");
     await Promise.all([status.mutate(), comments.mutate()]);

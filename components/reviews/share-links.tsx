@@ -6,6 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { fetcher } from "@/lib/http/fetcher";
+import { problemText, sendJson } from "@/lib/http/client";
 
 interface LinkRow {
   id: number;
@@ -23,16 +24,22 @@ export function ShareLinks({ fitId }: { fitId: number }) {
   const [made, setMade] = useState<string | null>(null);
 
   async function make() {
-    const res = await fetch(`/api/fits/${fitId}/share`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ recipient: recipient.trim() || null }) });
-    const out = await res.json();
-    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let out: { url: string };
+    try {
+      out = await sendJson<{ url: string }>(`/api/fits/${fitId}/share`, { body: { recipient: recipient.trim() || null } });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
     setMade(out.url);
     setRecipient("");
     await links.mutate();
   }
   async function revoke(id: number) {
-    const res = await fetch(`/api/share-links/${id}/revoke`, { method: "POST" });
-    if (!res.ok) return toast("The link could not be revoked.", "fault");
+    try {
+      await sendJson(`/api/share-links/${id}/revoke`);
+    } catch (e) {
+      return toast(`The link could not be revoked: ${problemText(e)}`, "fault");
+    }
     toast("Link revoked.", "info");
     await links.mutate();
   }

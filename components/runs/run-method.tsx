@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
+import { problemText, sendJson } from "@/lib/http/client";
 
 export function RunMethod({
   runId,
@@ -33,12 +34,14 @@ export function RunMethod({
   const mismatch = chosen && chosen.wavelength_nm !== null && runWavelength !== null && Math.abs(chosen.wavelength_nm - runWavelength) > 1 ? chosen.wavelength_nm : null;
   async function assign() {
     setBusy(true);
-    const res = await fetch(`/api/runs/${runId}/method`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ methodId: choice ? Number(choice) : null, reason, ...(mismatch !== null ? { wavelengthReason } : {}) }) });
-    const body = await res.json();
-    setBusy(false);
-    if (!res.ok) {
-      toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let body: { method: { name: string; version: number } | null };
+    try {
+      body = await sendJson<{ method: { name: string; version: number } | null }>(`/api/runs/${runId}/method`, { body: { methodId: choice ? Number(choice) : null, reason, ...(mismatch !== null ? { wavelengthReason } : {}) } });
+    } catch (e) {
+      toast(problemText(e), "fault");
       return;
+    } finally {
+      setBusy(false);
     }
     toast(body.method ? `Method set to ${body.method.name} (v${body.method.version}).` : "Method cleared.", "pass");
     setOpen(false);

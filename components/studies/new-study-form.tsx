@@ -6,6 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { formatWithUncertainty } from "@/lib/format/number";
+import { problemText, sendJson } from "@/lib/http/client";
 
 interface FitChoice {
   id: number;
@@ -28,14 +29,14 @@ export function NewStudyForm({ fits }: { fits: FitChoice[] }) {
 
   async function submit() {
     setBusy(true);
-    const res = await fetch("/api/studies", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ name, kind: "temperature", members: chosen.map((fitId) => ({ fitId })), options: { weighted, target_c: 25 } }),
-    });
-    const body = await res.json();
-    setBusy(false);
-    if (!res.ok) return toast(body.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let body: { id: number };
+    try {
+      body = await sendJson<{ id: number }>("/api/studies", { body: { name, kind: "temperature", members: chosen.map((fitId) => ({ fitId })), options: { weighted, target_c: 25 } } });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    } finally {
+      setBusy(false);
+    }
     router.push(`/studies/${body.id}`);
   }
 

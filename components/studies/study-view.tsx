@@ -15,6 +15,7 @@ import { halfLife, t90 } from "@/lib/kinetics/quantities";
 import { celsiusToKelvin, eyringBand, predictRateConstant, type RatePoint } from "@/lib/kinetics/temperature";
 import type { StudyGlobal, StudyRecord } from "@/lib/studies";
 import { GlobalFitSection } from "./global-fit";
+import { problemText, sendJson } from "@/lib/http/client";
 
 type TempResults = {
   n: number;
@@ -113,10 +114,14 @@ export function StudyView({
         };
       }), ...(Number.isInteger(addId) && addId > 0 ? [{ fitId: addId }] : [])],
     };
-    const res = await fetch(`/api/studies/${study.id}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-    const out = await res.json();
-    setBusy(false);
-    if (!res.ok) return toast(out.error?.message ?? `The server answered ${res.status}.`, "fault");
+    let out: { id: number; version: number };
+    try {
+      out = await sendJson<{ id: number; version: number }>(`/api/studies/${study.id}`, { body });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    } finally {
+      setBusy(false);
+    }
     toast(`Saved as version ${out.version}.`, "pass");
     router.push(`/studies/${out.id}`);
   }

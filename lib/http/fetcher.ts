@@ -4,6 +4,8 @@ export class FetchError extends Error {
     message: string,
     readonly status: number,
     readonly code?: string,
+    /** The route's validation issues (field path and message), when it refused the body. */
+    readonly issues?: ReadonlyArray<{ path: string; message: string; line?: number }>,
   ) {
     super(message);
     this.name = "FetchError";
