@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
-import { Button } from "@/components/ui/button";
+import { Button, buttonLinkClass } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
@@ -134,10 +134,10 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
             </p>
             <p className="break-all font-mono text-xs text-ink-500">report content hash {record.content_hash}</p>
             <div className="mt-3 flex flex-wrap items-end gap-3">
-              <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 px-3 text-sm font-semibold" href={`/api/validation/${record.id}/report`} data-testid="validation-pdf">
+              <a className={buttonLinkClass("secondary", "md", "text-sm")} href={`/api/validation/${record.id}/report`} data-testid="validation-pdf">
                 PDF report
               </a>
-              <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 px-3 text-sm font-semibold" href={`/api/validation/${record.id}/report?format=json`}>
+              <a className={buttonLinkClass("secondary", "md", "text-sm")} href={`/api/validation/${record.id}/report?format=json`}>
                 JSON
               </a>
               {record.signatures.length === 0 ? (

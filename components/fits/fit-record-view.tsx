@@ -17,6 +17,7 @@ import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { verifyFitVersion, type RecordIntegrity } from "@/lib/integrity";
 import { runWavelengthMismatch } from "@/lib/methods";
 import { can } from "@/lib/permissions";
+import { buttonLinkClass } from "@/components/ui/button";
 
 
 /**
@@ -46,13 +47,13 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
         actions={
           outside ? undefined : (
           <div className="flex flex-wrap gap-2">
-            <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/export?kind=data`} data-testid="export-data">
+            <a className={buttonLinkClass("secondary", "md", "text-sm")} href={`/api/fits/${rec.id}/export?kind=data`} data-testid="export-data">
               Data CSV
             </a>
-            <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/export?kind=parameters`}>
+            <a className={buttonLinkClass("secondary", "md", "text-sm")} href={`/api/fits/${rec.id}/export?kind=parameters`}>
               Parameters CSV
             </a>
-            <a className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" href={`/api/fits/${rec.id}/report`} data-testid="report-pdf">
+            <a className={buttonLinkClass("secondary", "md", "text-sm")} href={`/api/fits/${rec.id}/report`} data-testid="report-pdf">
               PDF report
             </a>
             {can(user, "fit:write") && newest.id === rec.id && (

@@ -6,7 +6,7 @@ import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { Plot } from "@/components/plot/plot";
 import { ReviewPanel } from "@/components/reviews/review-panel";
-import { Button } from "@/components/ui/button";
+import { Button, buttonLinkClass } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { formatNumber, formatSeconds, formatWithUncertainty, superscript } from "@/lib/format/number";
@@ -150,10 +150,10 @@ export function StudyView({
           {demoNote && <p className="mt-1 text-sm text-ink-500">Demo lab: these invented runs were generated with Ea = 82 kJ mol⁻¹, so the study shows the method recovering a known value.</p>}
         </div>
         <div className="flex gap-2">
-          <a href={`/api/studies/${study.id}/report`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold" data-testid="study-pdf">
+          <a href={`/api/studies/${study.id}/report`} className={buttonLinkClass("secondary", "md", "text-sm")} data-testid="study-pdf">
             PDF report
           </a>
-          <a href={`/api/studies/${study.id}/export`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-3 text-sm font-semibold">
+          <a href={`/api/studies/${study.id}/export`} className={buttonLinkClass("secondary", "md", "text-sm")}>
             Study CSV
           </a>
         </div>

@@ -29,3 +29,8 @@ export function Button({ variant = "primary", size = "md", className, type = "bu
     />
   );
 }
+
+/** The class of a link that looks like a button (downloads, "open"): the same variants and sizes as Button. */
+export function buttonLinkClass(variant: keyof typeof VARIANTS = "secondary", size: keyof typeof SIZES = "md", className?: string): string {
+  return cn("inline-flex items-center justify-center gap-2 rounded-cell font-semibold transition-colors", VARIANTS[variant], SIZES[size], className);
+}

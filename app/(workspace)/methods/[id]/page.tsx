@@ -4,22 +4,19 @@ import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/shell/page-header";
 import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
-import { requirePageUser } from "@/lib/auth/page";
-import { AppError } from "@/lib/errors";
+import { orNotFound, requirePageUser } from "@/lib/auth/page";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { describeCriterion } from "@/lib/kinetics/criteria";
 import { getMethod } from "@/lib/methods";
 import { can } from "@/lib/permissions";
+import { buttonLinkClass } from "@/components/ui/button";
 
 export const metadata: Metadata = { title: "Method" };
 
 export default async function MethodPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await requirePageUser("method:read", `/methods/${id}`);
-  const m = await getMethod(await getDb(), user.labId, Number(id)).catch((e: unknown) => {
-    if (e instanceof AppError && e.code === "not_found") notFound();
-    throw e;
-  });
+  const m = await getMethod(await getDb(), user.labId, Number(id)).catch(orNotFound);
   const d = m.definition;
   const newest = m.newest_id === m.id;
   return (
@@ -29,7 +26,7 @@ export default async function MethodPage({ params }: { params: Promise<{ id: str
         lede={`Version ${m.version} of ${m.versions.length} · ${d.analyte} · saved ${m.created_at.slice(0, 16).replace("T", " ")} UTC by ${m.author ?? "—"}`}
         actions={
           can(user, "method:write") && newest ? (
-            <Link href={`/methods/${m.id}/edit`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-4 font-semibold">
+            <Link href={`/methods/${m.id}/edit`} className={buttonLinkClass("secondary", "md", "text-sm")}>
               Change (new version)
             </Link>
           ) : undefined

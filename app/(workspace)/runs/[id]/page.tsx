@@ -7,13 +7,13 @@ import { PageHeader } from "@/components/shell/page-header";
 import { Badge } from "@/components/ui/badge";
 import { Table, Td, Th } from "@/components/ui/table";
 import { getDb } from "@/db";
-import { requirePageUser } from "@/lib/auth/page";
+import { orNotFound, requirePageUser } from "@/lib/auth/page";
 import { solutionColour } from "@/lib/colour/wavelength";
-import { AppError } from "@/lib/errors";
 import { formatBytes, formatSeconds } from "@/lib/format/number";
 import { methodChoices } from "@/lib/methods";
 import { can } from "@/lib/permissions";
 import { getRunDetail } from "@/lib/runs";
+import { buttonLinkClass } from "@/components/ui/button";
 
 export const metadata: Metadata = { title: "Run" };
 
@@ -23,10 +23,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
   const runId = Number(id);
   if (!Number.isInteger(runId) || runId <= 0) notFound();
   const db = await getDb();
-  const run = await getRunDetail(db, user.labId, runId).catch((e: unknown) => {
-    if (e instanceof AppError && e.code === "not_found") notFound();
-    throw e;
-  });
+  const run = await getRunDetail(db, user.labId, runId).catch(orNotFound);
   const colour = solutionColour(run.wavelength_nm);
   const facts: Array<[string, string | number | null]> = [
     ["Wavelength", run.wavelength_nm != null ? `${run.wavelength_nm} nm` : null],
@@ -44,7 +41,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         title={run.name}
         lede={`Read by the ${run.parser} parser from ${run.raw_file.name}; uploaded ${run.created_at.slice(0, 16).replace("T", " ")} UTC${run.created_by ? ` by ${run.created_by}` : ""}.`}
         actions={
-          <a href={`/api/raw-files/${run.raw_file.id}`} className="inline-flex h-10 items-center rounded-cell border border-ink-300 bg-paper-raised px-4 font-semibold hover:border-ink-500">
+          <a href={`/api/raw-files/${run.raw_file.id}`} className={buttonLinkClass("secondary", "md", "text-sm")}>
             Download the original file
           </a>
         }

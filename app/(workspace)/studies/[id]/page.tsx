@@ -3,8 +3,7 @@ import { notFound } from "next/navigation";
 import { StudyView } from "@/components/studies/study-view";
 import { getDb } from "@/db";
 import { DEMO_LAB } from "@/db/seeds/demo";
-import { requirePageUser } from "@/lib/auth/page";
-import { AppError } from "@/lib/errors";
+import { orNotFound, requirePageUser } from "@/lib/auth/page";
 import { can } from "@/lib/permissions";
 import { listFits } from "@/lib/fits";
 import { residualPanelsScene } from "@/lib/reports/rate-plot";
@@ -16,10 +15,7 @@ export const metadata: Metadata = { title: "Study" };
 export default async function StudyPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await requirePageUser("study:read", `/studies/${id}`);
-  const rec = await getStudyRecord(await getDb(), user.labId, Number(id)).catch((e: unknown) => {
-    if (e instanceof AppError && e.code === "not_found") notFound();
-    throw e;
-  });
+  const rec = await getStudyRecord(await getDb(), user.labId, Number(id)).catch(orNotFound);
   const db = await getDb();
   // The fits that may be added: the lab's saved fits not already in the study, to pick from by name, run or temperature.
   const inStudy = new Set(rec.members.map((m) => m.fitId));

@@ -3,8 +3,7 @@ import { notFound, redirect } from "next/navigation";
 import { MethodForm } from "@/components/methods/method-form";
 import { PageHeader } from "@/components/shell/page-header";
 import { getDb } from "@/db";
-import { requirePageUser } from "@/lib/auth/page";
-import { AppError } from "@/lib/errors";
+import { orNotFound, requirePageUser } from "@/lib/auth/page";
 import { getMethod, listCalibrations } from "@/lib/methods";
 
 export const metadata: Metadata = { title: "New method version" };
@@ -13,10 +12,7 @@ export default async function EditMethodPage({ params }: { params: Promise<{ id:
   const { id } = await params;
   const user = await requirePageUser("method:write", `/methods/${id}/edit`);
   const db = await getDb();
-  const m = await getMethod(db, user.labId, Number(id)).catch((e: unknown) => {
-    if (e instanceof AppError && e.code === "not_found") notFound();
-    throw e;
-  });
+  const m = await getMethod(db, user.labId, Number(id)).catch(orNotFound);
   if (m.newest_id !== m.id) redirect(`/methods/${m.newest_id}/edit`);
   const cals = await listCalibrations(db, user.labId, { sort: "created_at", dir: "desc", page: 1, pageSize: 200 });
   return (

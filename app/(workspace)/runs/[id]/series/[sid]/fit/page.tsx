@@ -2,8 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { FitWorkspace } from "@/components/fits/fit-workspace";
 import { getDb } from "@/db";
-import { requirePageUser } from "@/lib/auth/page";
-import { AppError } from "@/lib/errors";
+import { orNotFound, requirePageUser } from "@/lib/auth/page";
 import { getFitRecord } from "@/lib/fits";
 import { ENGINE_VERSION } from "@/lib/kinetics/constants";
 import { can } from "@/lib/permissions";
@@ -17,10 +16,6 @@ export default async function FitPage({ params, searchParams }: { params: Promis
   const sp = await searchParams;
   const user = await requirePageUser("fit:read", `/runs/${id}/series/${sid}/fit`);
   const db = await getDb();
-  const orNotFound = (e: unknown): never => {
-    if (e instanceof AppError && e.code === "not_found") notFound();
-    throw e;
-  };
   const run = await getRunDetail(db, user.labId, Number(id)).catch(orNotFound);
   const series = run.series.find((s) => s.id === Number(sid));
   if (!series) notFound();
