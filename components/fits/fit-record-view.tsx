@@ -101,7 +101,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
       {user && (
         <div className="mb-6 space-y-6">
           <ReviewPanel record={{ type: "fit", id: rec.id }} isAuthor={rec.author_id === user.userId} mayDecide={can(user, "review:decide")} maySubmit={can(user, "fit:submit") && newest.id === rec.id} />
-          {can(user, "share:create") && <ShareLinks fitId={rec.id} />}
+          {can(user, "share:create") && <ShareLinks record={{ type: "fit", id: rec.id }} />}
         </div>
       )}
       {/* min-w-0: a grid item may shrink below its table's width, so a wide table scrolls in its own box at phone width. */}

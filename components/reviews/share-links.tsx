@@ -17,16 +17,17 @@ interface LinkRow {
   views: number;
 }
 
-export function ShareLinks({ fitId }: { fitId: number }) {
+export function ShareLinks({ record }: { record: { type: "fit" | "study"; id: number } }) {
   const toast = useToast();
-  const links = useSWR<{ links: LinkRow[] }>(`/api/fits/${fitId}/share`, fetcher);
+  const base = `/api/${record.type === "fit" ? "fits" : "studies"}/${record.id}/share`;
+  const links = useSWR<{ links: LinkRow[] }>(base, fetcher);
   const [recipient, setRecipient] = useState("");
   const [made, setMade] = useState<string | null>(null);
 
   async function make() {
     let out: { url: string };
     try {
-      out = await sendJson<{ url: string }>(`/api/fits/${fitId}/share`, { body: { recipient: recipient.trim() || null } });
+      out = await sendJson<{ url: string }>(base, { body: { recipient: recipient.trim() || null } });
     } catch (e) {
       return toast(problemText(e), "fault");
     }

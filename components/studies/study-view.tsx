@@ -6,6 +6,7 @@ import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { Plot } from "@/components/plot/plot";
 import { ReviewPanel } from "@/components/reviews/review-panel";
+import { ShareLinks } from "@/components/reviews/share-links";
 import { Button, buttonLinkClass } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
@@ -45,6 +46,7 @@ export function StudyView({
   candidates,
   review,
   residualSvg,
+  canShare = false,
 }: {
   study: StudyRecord;
   canWrite: boolean;
@@ -53,6 +55,7 @@ export function StudyView({
   review: { isAuthor: boolean; mayDecide: boolean; maySubmit: boolean };
   /** The global fit's per-run residual panels, drawn on the server. */
   residualSvg: string | null;
+  canShare?: boolean;
 }) {
   const router = useRouter();
   const toast = useToast();
@@ -89,6 +92,7 @@ export function StudyView({
         <div className="mt-6 space-y-6">
           <GlobalFitSection g={r.global} twoStage={r.k2} residualSvg={residualSvg} />
           <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
+      {canShare && <ShareLinks record={{ type: "study", id: study.id }} />}
         </div>
       </div>
     );
@@ -229,6 +233,7 @@ export function StudyView({
       </section>
       <GlobalFitSection g={r.global} twoStage={r.ea} residualSvg={residualSvg} />
       <ReviewPanel record={{ type: "study", id: study.id }} {...review} />
+      {canShare && <ShareLinks record={{ type: "study", id: study.id }} />}
       <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Prediction">
         <h2 className="mb-3 text-lg font-semibold">Prediction at a temperature</h2>
         <div className="flex flex-wrap items-end gap-4">

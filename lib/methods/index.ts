@@ -318,18 +318,20 @@ export async function runWavelengthMismatch(db: Knex, labId: number, runId: numb
 }
 
 export async function assignRunMethod(db: Knex, user: SignedInUser, runId: number, methodRecordId: number | null, reason: string, wavelengthReason?: string) {
-  const run = await getRun(db, user.labId, runId);
-  if (!run) throw new AppError({ code: "not_found", message: `There is no run ${runId} in this lab.` });
-  const method = methodRecordId ? await newestMethodVersion(db, user.labId, methodRecordId) : null;
-  if (methodRecordId && !method) throw new AppError({ code: "unprocessable", message: `There is no method ${methodRecordId} in this lab.` });
-  const mismatch = wavelengthMismatch(method?.definition.wavelength_nm, run.wavelength_nm);
-  if (mismatch && !wavelengthReason)
-    throw new AppError({
-      code: "unprocessable",
-      message: `${method!.name} is a method for ${mismatch.method_nm} nm; this run was measured at ${mismatch.run_nm} nm. Its absorptivity or calibration and its criteria may not hold here: say why the method applies anyway, or choose another.`,
-      issues: [{ path: "wavelengthReason", message: "Required when the wavelengths differ." }],
-    });
+  // The run, the method's newest version and the wavelength guard are read inside the transaction that writes, so the
+  // check holds for exactly the versions the assignment records.
   return db.transaction(async (trx) => {
+    const run = await getRun(trx, user.labId, runId);
+    if (!run) throw new AppError({ code: "not_found", message: `There is no run ${runId} in this lab.` });
+    const method = methodRecordId ? await newestMethodVersion(trx, user.labId, methodRecordId) : null;
+    if (methodRecordId && !method) throw new AppError({ code: "unprocessable", message: `There is no method ${methodRecordId} in this lab.` });
+    const mismatch = wavelengthMismatch(method?.definition.wavelength_nm, run.wavelength_nm);
+    if (mismatch && !wavelengthReason)
+      throw new AppError({
+        code: "unprocessable",
+        message: `${method!.name} is a method for ${mismatch.method_nm} nm; this run was measured at ${mismatch.run_nm} nm. Its absorptivity or calibration and its criteria may not hold here: say why the method applies anyway, or choose another.`,
+        issues: [{ path: "wavelengthReason", message: "Required when the wavelengths differ." }],
+      });
     await setRunMethod(trx, user.labId, runId, method ? method.record_id : null, method ? method.name : null);
     await recordAudit(trx, {
       labId: user.labId,

@@ -1,8 +1,9 @@
-// Share links: one pinned record version, a random 192-bit token of which only the SHA-256 is stored, an expiry
-// (14 days by default), revocation, and every open logged.
+// Share links: one pinned record version (a fit or a study), a random 192-bit token of which only the SHA-256 is
+// stored, an expiry (14 days by default), revocation, and every open logged.
 import { createHash, randomBytes } from "node:crypto";
 import type { Knex } from "knex";
 import { getFit } from "@/db/queries/fits";
+import { getStudy } from "@/db/queries/studies";
 import { findLabById } from "@/db/queries/labs";
 import { listLabMembers } from "@/db/queries/users";
 import { findShareLink, findShareLinkByTokenHash, insertShareLink, insertShareView, revokeShareLink, shareLinksOf } from "@/db/queries/sharing";
@@ -16,16 +17,30 @@ import { appUrl, linkMail, sendMail } from "@/lib/mail";
 const tokenHash = (t: string) => createHash("sha256").update(t).digest("hex");
 export const DEFAULT_SHARE_DAYS = 14;
 
+export type SharedObject = "fit" | "study";
+
+/** The record version a link pins: its record id, version and title (404 when it is not in the lab). */
+async function sharedVersion(db: Knex, labId: number, type: SharedObject, id: number): Promise<{ record_id: number; version: number; title: string }> {
+  if (type === "fit") {
+    const f = await getFit(db, labId, id);
+    if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${id} in this lab.` });
+    return { record_id: f.record_id!, version: f.version, title: f.title };
+  }
+  const s = await getStudy(db, labId, id);
+  if (!s) throw new AppError({ code: "not_found", message: `There is no study ${id} in this lab.` });
+  return { record_id: s.record_id ?? s.id, version: s.version, title: s.name };
+}
+
 export async function createShareLink(
   db: Knex,
   user: SignedInUser,
   fitId: number,
-  opts: { recipient?: string | null; days?: number; mail?: { subject: string; lines: string[] } },
+  opts: { recipient?: string | null; days?: number; mail?: { subject: string; lines: string[] }; type?: SharedObject },
 ) {
+  const type = opts.type ?? "fit";
   // A link opens the record for others: only someone who may read the record may make one.
-  if (!can(user, "fit:read")) throw new AppError({ code: "forbidden", message: "Your role does not read fit records, so it cannot share them." });
-  const f = await getFit(db, user.labId, fitId);
-  if (!f) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
+  if (!can(user, type === "fit" ? "fit:read" : "study:read")) throw new AppError({ code: "forbidden", message: `Your role does not read ${type} records, so it cannot share them.` });
+  const f = await sharedVersion(db, user.labId, type, fitId);
   const token = randomBytes(24).toString("base64url");
   const now = new Date();
   const settings = await getLabSettings(db, user.labId);
@@ -37,8 +52,8 @@ export async function createShareLink(
   }
   const expires = new Date(now.getTime() + days * 86_400_000).toISOString();
   const id = await db.transaction(async (trx) => {
-    const linkId = await insertShareLink(trx, { lab_id: user.labId, token_sha256: tokenHash(token), object_type: "fit", object_id: fitId, recipient: opts.recipient ?? null, expires_at: expires, revoked_at: null, revoked_by: null, created_by: user.userId, created_at: now.toISOString() });
-    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.created", objectType: "fit", objectId: f.record_id, objectVersion: f.version, newValues: { share_link_id: linkId, recipient: opts.recipient ?? null, expires_at: expires } });
+    const linkId = await insertShareLink(trx, { lab_id: user.labId, token_sha256: tokenHash(token), object_type: type, object_id: fitId, recipient: opts.recipient ?? null, expires_at: expires, revoked_at: null, revoked_by: null, created_by: user.userId, created_at: now.toISOString() });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.created", objectType: type, objectId: f.record_id, objectVersion: f.version, newValues: { share_link_id: linkId, recipient: opts.recipient ?? null, expires_at: expires } });
     return linkId;
   });
   const url = appUrl(`/share/${token}`);
@@ -59,7 +74,7 @@ export async function revokeLink(db: Knex, user: SignedInUser, linkId: number) {
   // The open-link check is the UPDATE's own condition: of two revocations at once, one writes and audits.
   const revoked = await db.transaction(async (trx) => {
     if (!(await revokeShareLink(trx, linkId, user.userId, at))) return false;
-    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.revoked", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: linkId } });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.revoked", objectType: l.object_type, objectId: l.object_id, newValues: { share_link_id: linkId } });
     return true;
   });
   if (!revoked) return { revoked_at: (await findShareLink(db, user.labId, linkId))!.revoked_at! };
@@ -79,9 +94,9 @@ export async function openShareLink(db: Knex, user: SignedInUser, token: string,
   const at = now.toISOString();
   await db.transaction(async (trx) => {
     await insertShareView(trx, l.id, user.userId, at);
-    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.viewed", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
+    await recordAudit(trx, { labId: user.labId, actorUserId: user.userId, action: "share.viewed", objectType: l.object_type, objectId: l.object_id, newValues: { share_link_id: l.id } });
   });
-  return { fit_id: l.object_id, expires_at: l.expires_at, recipient: l.recipient };
+  return { object_type: l.object_type as SharedObject, fit_id: l.object_id, expires_at: l.expires_at, recipient: l.recipient };
 }
 
 /**
@@ -95,13 +110,13 @@ export async function openShareLinkOutside(db: Knex, token: string, now = new Da
   if (!(await getLabSettings(db, l.lab_id)).outside_links) throw new AppError({ code: "unauthorized", message: "Sign in to open this link: its lab shares records with its members only." });
   refuseIfOver(l, now);
   // One row, and recordAudit appends it in its own transaction.
-  await recordAudit(db, { labId: l.lab_id, actorUserId: null, actorLabel: `outside reviewer via link ${l.id}${l.recipient ? ` (${l.recipient})` : ""}`, action: "share.viewed_outside", objectType: "fit", objectId: l.object_id, newValues: { share_link_id: l.id } });
+  await recordAudit(db, { labId: l.lab_id, actorUserId: null, actorLabel: `outside reviewer via link ${l.id}${l.recipient ? ` (${l.recipient})` : ""}`, action: "share.viewed_outside", objectType: l.object_type, objectId: l.object_id, newValues: { share_link_id: l.id } });
   const lab = await findLabById(db, l.lab_id);
-  return { fit_id: l.object_id, lab_id: l.lab_id, lab_name: lab?.name ?? "", expires_at: l.expires_at, recipient: l.recipient };
+  return { object_type: l.object_type as SharedObject, fit_id: l.object_id, lab_id: l.lab_id, lab_name: lab?.name ?? "", expires_at: l.expires_at, recipient: l.recipient };
 }
 
-export async function listShareLinks(db: Knex, labId: number, fitId: number) {
+export async function listShareLinks(db: Knex, labId: number, fitId: number, type: SharedObject = "fit") {
   // Another lab's record answers 404, as it would when opened: an empty list would say it exists.
-  if (!(await getFit(db, labId, fitId))) throw new AppError({ code: "not_found", message: `There is no fit ${fitId} in this lab.` });
-  return (await shareLinksOf(db, labId, "fit", fitId)).map((r) => ({ ...r, views: Number((r as { views: unknown }).views) }));
+  await sharedVersion(db, labId, type, fitId);
+  return (await shareLinksOf(db, labId, type, fitId)).map((r) => ({ ...r, views: Number((r as { views: unknown }).views) }));
 }

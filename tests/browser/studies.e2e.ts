@@ -90,6 +90,19 @@ describe("temperature study", () => {
       expect(text.stdout).toMatch(/1000 \/ T \(K⁻¹\)/);
       expect(text.stdout).toMatch(/Rafe Okonkwo · APPROVED/);
       expect(text.stdout).toMatch(/block probe\s+calibrated:\s+30\.6\s+°C/);
+
+      // A share link to the approved version opens read-only with its plots, and fits a phone's width.
+      const studyId = new URL(studyUrl).pathname.split("/").pop();
+      const made = await r.request.post(`${baseURL}/api/studies/${studyId}/share`, { data: {} });
+      expect(made.status()).toBe(201);
+      const { path: linkPath } = (await made.json()) as { path: string };
+      await r.setViewportSize({ width: 390, height: 844 });
+      await r.goto(`${baseURL}${linkPath}`);
+      await r.getByTestId("share-banner").waitFor();
+      await expect(r.getByTestId("shared-study-results").textContent()).resolves.toMatch(/Ea = [\d.]+ ± [\d.]+ kJ mol⁻¹/);
+      await expect(r.getByTestId("shared-arrhenius").locator("svg text").allTextContents()).resolves.toContain("1000 / T (K⁻¹)");
+      await expect.poll(() => r.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(0);
+      await r.screenshot({ path: path.join(artifacts, "study-share-at-390px.png"), fullPage: true });
     } finally {
       await closeReviewer();
     }

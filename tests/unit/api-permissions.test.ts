@@ -171,6 +171,9 @@ const ROUTES: Record<string, RouteCase> = {
       POST: { permission: "study:read", url: "/api/studies/1/comments", params: { id: "1" }, json: { body: "matrix comment" }, ok: [201] },
     },
   },
+  "app/api/studies/[id]/share/route.ts": {
+    methods: { GET: { permission: "share:create", url: "/api/studies/1/share", params: { id: "1" } }, POST: { permission: "share:create", url: "/api/studies/1/share", params: { id: "1" }, json: {}, ok: [201] } },
+  },
   "app/api/studies/[id]/report/route.ts": { methods: { GET: { permission: "study:read", url: "/api/studies/1/report", params: { id: "1" } } } },
 };
 

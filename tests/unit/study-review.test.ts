@@ -15,6 +15,8 @@ import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { reviewQueue, reviewStatus, waitingForMe } from "@/lib/reviews";
 import { studyReportPdf } from "@/lib/reports/study-pdf";
 import { changeStudy, createStudy } from "@/lib/studies";
+import { changeLabSettings } from "@/lib/admin/settings";
+import { openShareLink, openShareLinkOutside, revokeLink } from "@/lib/sharing";
 import { freshDb } from "../helpers/db";
 
 const session = vi.hoisted(() => ({ current: null as SignedInUser | null }));
@@ -104,6 +106,25 @@ describe("a study through review", () => {
     expect(text).toMatch(/All curves fitted together/);
     expect(text).toMatch(/Rafe Okonkwo approved study \d+ version 1/);
     expect(text).not.toMatch(/"study\./);
+  });
+
+  it("a share link pins the study version: a member opens it, an outside reviewer only where the lab allows it; it can be revoked", async () => {
+    const { POST, GET } = await import("@/app/api/studies/[id]/share/route");
+    session.current = as.analyst!;
+    const made = await POST(new Request(`http://halflight.test/api/studies/${id}/share`, { method: "POST", body: "{}" }), ctx({ id: String(id) }));
+    expect(made.status).toBe(201);
+    const { path: linkPath, id: linkId } = (await made.json()) as { path: string; id: number };
+    const token = linkPath.split("/").pop()!;
+    expect(await openShareLink(db, as.reviewer!, token)).toMatchObject({ object_type: "study", fit_id: id });
+    await expect(openShareLinkOutside(db, token)).rejects.toMatchObject({ code: "unauthorized" });
+    await changeLabSettings(db, as.admin!, { outside_links: true, default_link_days: 14, upload_limit_mb: 50, password_min_length: 12, reason: "outside reviewer for the shelf study" });
+    expect(await openShareLinkOutside(db, token)).toMatchObject({ object_type: "study", fit_id: id });
+    const list = await GET(new Request(`http://halflight.test/api/studies/${id}/share`), ctx({ id: String(id) }));
+    expect(((await list.json()) as { links: Array<{ id: number; views: number }> }).links).toMatchObject([{ id: linkId, views: 1 }]);
+    await revokeLink(db, as.analyst!, linkId);
+    await expect(openShareLink(db, as.reviewer!, token)).rejects.toMatchObject({ code: "gone" });
+    const actions = (await db("audit_events").where({ object_type: "study" }).whereLike("action", "share.%").select("action")).map((a) => a.action);
+    expect(actions).toEqual(["share.created", "share.viewed", "share.viewed_outside", "share.revoked"]);
   });
 
   it("a new version is a new draft: the approved one is shown superseded, and the old version cannot be submitted again", async () => {

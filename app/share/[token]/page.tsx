@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { FitRecordView } from "@/components/fits/fit-record-view";
+import { StudyShareView } from "@/components/studies/study-share-view";
 import { getDb } from "@/db";
 import { requirePageUser } from "@/lib/auth/page";
 import { AppError } from "@/lib/errors";
@@ -15,7 +16,7 @@ export default async function SharePage({ params }: { params: Promise<{ token: s
   const { token } = await params;
   const session = await getSessionUser();
   const user = session ?? null;
-  let opened: { fit_id: number; expires_at: string; lab_id?: number; lab_name?: string };
+  let opened: { object_type: "fit" | "study"; fit_id: number; expires_at: string; lab_id?: number; lab_name?: string };
   try {
     opened = user ? await openShareLink(await getDb(), user, token) : await openShareLinkOutside(await getDb(), token);
   } catch (e) {
@@ -32,23 +33,28 @@ export default async function SharePage({ params }: { params: Promise<{ token: s
       </main>
     );
   }
+  const banner = user ? (
+    <p className="mb-4 rounded-cell bg-quartz-100 px-4 py-2 text-sm text-quartz-700" data-testid="share-banner">
+      Opened from a share link pinned to this version (expires {opened.expires_at.slice(0, 10)}). <Link className="font-semibold underline" href="/">Your workspace</Link>
+    </p>
+  ) : (
+    <p className="mb-4 rounded-cell bg-quartz-100 px-4 py-2 text-sm text-quartz-700" data-testid="share-banner">
+      {opened.lab_name} shared this with you read-only: one version of the record, as it was saved (the link expires {opened.expires_at.slice(0, 10)}; each opening is logged). To comment or sign, ask the lab for a reviewer account.
+    </p>
+  );
+  if (opened.object_type === "study")
+    return (
+      <main className="px-gutter py-8 lg:px-10">
+        <StudyShareView labId={opened.lab_id ?? user!.labId} id={opened.fit_id} banner={banner} />
+      </main>
+    );
   return (
     <main className="px-gutter py-8 lg:px-10">
       <FitRecordView
         user={user}
         labId={opened.lab_id}
         id={opened.fit_id}
-        banner={
-          user ? (
-            <p className="mb-4 rounded-cell bg-quartz-100 px-4 py-2 text-sm text-quartz-700" data-testid="share-banner">
-              Opened from a share link pinned to this version (expires {opened.expires_at.slice(0, 10)}). <Link className="font-semibold underline" href="/">Your workspace</Link>
-            </p>
-          ) : (
-            <p className="mb-4 rounded-cell bg-quartz-100 px-4 py-2 text-sm text-quartz-700" data-testid="share-banner">
-              {opened.lab_name} shared this with you read-only: one version of the record, as it was saved (the link expires {opened.expires_at.slice(0, 10)}; each opening is logged). To comment or sign, ask the lab for a reviewer account.
-            </p>
-          )
-        }
+        banner={banner}
       />
     </main>
   );

@@ -31,6 +31,7 @@ export default async function StudyPage({ params }: { params: Promise<{ id: stri
   return (
     <StudyView
       residualSvg={residualSvg}
+      canShare={can(user, "share:create")}
       study={rec}
       canWrite={can(user, "study:write")}
       demoNote={user.labSlug === DEMO_LAB.slug}
