@@ -17,7 +17,7 @@ export function SideRail({
   const path = usePathname();
   return (
     // A rail on the left from tablet width up; above the page, its links wrapping, on a phone.
-    <aside className="flex w-full shrink-0 flex-col border-b border-ink-100 bg-paper-sunk md:w-rail md:border-b-0 md:border-r">
+    <aside data-print="hide" className="flex w-full shrink-0 flex-col border-b border-ink-100 bg-paper-sunk md:w-rail md:border-b-0 md:border-r">
       <a href="#main" className="sr-only focus:not-sr-only focus:m-2 focus:rounded-cell focus:bg-paper-raised focus:p-2">
         Skip to content
       </a>

@@ -106,6 +106,14 @@ describe("fitting workspace", () => {
     // The record's audit events read as sentences: who did what to which version, and why.
     await expect(page.getByTestId("record-audit").textContent()).resolves.toMatch(/saved a new version of fit record \d+ version 2, because: bubble excluded/);
     await page.screenshot({ path: path.join(artifacts, "fit-record.png"), fullPage: true });
+    // Printed, the record stands alone: the plot and the numbers, without the navigation or the controls.
+    await page.emulateMedia({ media: "print" });
+    expect(await page.getByTestId("workspace-nav").isVisible()).toBe(false);
+    expect(await page.getByTestId("record-plot").isVisible()).toBe(true);
+    expect(await page.getByTestId("record-k").isVisible()).toBe(true);
+    expect(await page.locator("main button:visible").count()).toBe(0);
+    await page.pdf({ path: path.join(artifacts, "fit-record-printed.pdf") });
+    await page.emulateMedia({ media: "screen" });
 
     // The CSV's k, printed the page's way, is the page's k.
     const pageK = (await page.getByTestId("record-k").textContent())!;
