@@ -1,5 +1,9 @@
 // Re-fits off the main thread, so the page never freezes: the series arrives once, then each message carries options.
+import * as mathjs from "mathjs";
+import { provideMathjs } from "@/lib/kinetics/formula";
 import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
+
+provideMathjs(mathjs);
 
 type Message = { type: "data"; t: Float64Array; y: Float64Array } | { type: "fit"; id: number; options: SeriesFitOptions };
 

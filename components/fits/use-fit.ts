@@ -3,7 +3,12 @@
 // where workers are unavailable). A newer option cancels the fit under way: that worker is ended and a new one takes
 // the series and the newest options. The last result stays on screen, marked as re-fitting, until the new one lands.
 import { useEffect, useMemo, useRef, useState } from "react";
+import * as mathjs from "mathjs";
+import { provideMathjs } from "@/lib/kinetics/formula";
 import { fitSeriesWithOptions, type SeriesFitOptions, type SeriesFitOutcome } from "@/lib/kinetics/workspace";
+
+// Where workers are unavailable the page fits itself, formulas included.
+provideMathjs(mathjs);
 
 type Result = { outcome: SeriesFitOutcome; ms: number | null; where: "worker" | "page" };
 

@@ -4,7 +4,28 @@
 // assignments or property access). Derivatives are symbolic without mathjs's simplification step (whose cost grows
 // exponentially with the formula), for small trees only; larger trees and points where a symbolic derivative is not
 // finite (0·log 0 at t = 0) use central differences.
-import { ConstantNode, derivative, FunctionNode, OperatorNode, parse, simplify, type EvalFunction, type MathNode } from "mathjs";
+import type * as MathJs from "mathjs";
+import type { EvalFunction, MathNode } from "mathjs";
+
+// mathjs is loaded only when a formula is first read (it costs most of a second to load, and most fits need none):
+// under Node from node_modules on first use; a browser bundle hands it over with `provideMathjs` where it fits.
+let mathjsModule: typeof MathJs | null = null;
+
+/** Gives the formula engine its mathjs (the browser's fitting worker and page do this once). */
+export function provideMathjs(m: typeof MathJs): void {
+  mathjsModule = m;
+}
+
+function mathjs(): typeof MathJs {
+  if (mathjsModule) return mathjsModule;
+  const node = (globalThis as { process?: { getBuiltinModule?: (id: string) => { createRequire(path: string): (id: string) => unknown } | undefined; cwd?: () => string } }).process;
+  const mod = node?.getBuiltinModule?.("node:module");
+  if (mod && node?.cwd) {
+    mathjsModule = mod.createRequire(`${node.cwd()}/`)("mathjs") as typeof MathJs;
+    return mathjsModule;
+  }
+  throw new Error("The formula engine is not loaded on this page; reload it.");
+}
 
 /** Longest formula read at all. */
 export const MAX_FORMULA_LENGTH = 2000;
@@ -65,7 +86,7 @@ export function checkFormula(source: string, variable = "t"): Checked {
   }
   let node: MathNode;
   try {
-    node = parse(text);
+    node = mathjs().parse(text);
   } catch (e) {
     throw new FormulaError(`The formula cannot be read: ${(e as Error).message}`);
   }
@@ -147,8 +168,8 @@ export function compileFormula(source: string, variable = "t"): CompiledFormula 
     f = node.compile();
     if (size <= SYMBOLIC_DERIVATIVE_NODES) {
       d = params.map((p) => {
-        let dp = prune(derivative(node, p, { simplify: false }));
-        if (simplifiable(dp)) dp = simplify(dp);
+        let dp = prune(mathjs().derivative(node, p, { simplify: false }));
+        if (simplifiable(dp)) dp = mathjs().simplify(dp);
         return dp.compile();
       });
     }
@@ -209,6 +230,7 @@ export function prune(node: MathNode): MathNode {
   const a = node as unknown as { type: string; op: string; fn: string; args: MathNode[]; content: MathNode };
   // Brackets only shape the printed form: the tree already holds the order of operations.
   if (node.type === "ParenthesisNode") return prune(a.content);
+  const { ConstantNode, FunctionNode, OperatorNode } = mathjs();
   if (node.type === "FunctionNode") return new FunctionNode((node as unknown as { fn: MathNode }).fn as never, a.args.map(prune));
   if (node.type !== "OperatorNode") return node;
   const args = a.args.map(prune);

@@ -1,6 +1,7 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global` or `-- series` runs one part.
+// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global`, `-- series` or `-- cli` runs one part.
 import { benchAudit } from "./audit";
+import { benchCli } from "./cli";
 import { benchEngine } from "./engine";
 import { benchFormula } from "./formula";
 import { benchGlobal } from "./global";
@@ -14,6 +15,7 @@ if (!only || only === "engine") benchEngine();
 if (!only || only === "formula") benchFormula();
 if (!only || only === "ingest") benchIngest();
 if (!only || only === "global") benchGlobal();
+if (!only || only === "cli") benchCli();
 (async () => {
   if (!only || only === "audit") await benchAudit();
   if (!only || only === "limits") await benchLimits();
