@@ -24,6 +24,7 @@ import { convertReading, fitSeriesWithOptions, type Conversion, type SeriesFitOp
 import type { FitOptions } from "@/lib/schemas/fits";
 import type { MethodForRun } from "@/lib/schemas/methods";
 import { decimateIndices, decimate } from "@/lib/plot/decimate";
+import { buildFitOptions } from "./fit-state";
 import { useSeriesFit } from "./use-fit";
 import { problemText, sendJson } from "@/lib/http/client";
 
@@ -140,25 +141,10 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const [pending, setPending] = useState<number[] | null>(null);
   const [rateAt, setRateAt] = useState<string>("");
 
-  // Only finite starts reach the engine; a half-typed value is simply not used yet.
-  const starts = useMemo(() => Object.fromEntries(Object.entries(parseStartValues(startsText)).filter(([, v]) => Number.isFinite(v))), [startsText]);
+  // The controls' one pure step to options (components/fits/fit-state.ts, unit-tested against the route's schema).
   const options: FitOptions = useMemo(
-    () => ({
-      models: models as FitOptions["models"],
-      ...(models.includes("formula") ? { formula } : {}),
-      ...(Object.keys(starts).length ? { starts } : {}),
-      ...(num(windowFrom) !== null || num(windowTo) !== null ? { window: { from: num(windowFrom), to: num(windowTo) } } : {}),
-      ...(exclusions.length ? { exclusions } : {}),
-      ...(num(fixAinf) !== null && Number.isFinite(num(fixAinf)) ? { fixed: { ainf: num(fixAinf)! } } : {}),
-      ...(logWeights ? { logWeights: true } : {}),
-      ...(num(interval) ? { interval: num(interval) } : {}),
-      ...(useCalibration && calibrationConv
-        ? { conversion: calibrationConv }
-        : num(epsilon)
-          ? { conversion: { kind: "beer-lambert" as const, epsilon: num(epsilon)!, pathLengthCm: num(pathLength) ?? 1, ...(startConv?.kind === "beer-lambert" && startConv.blank != null ? { blank: startConv.blank } : {}) } }
-          : {}),
-    }),
-    [models, formula, starts, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength, useCalibration, calibrationConv, startConv],
+    () => buildFitOptions({ models, formula, startsText, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength, useCalibration, calibrationConv, startConv }),
+    [models, formula, startsText, windowFrom, windowTo, exclusions, fixAinf, logWeights, interval, epsilon, pathLength, useCalibration, calibrationConv, startConv],
   );
   const { result, busy: stale } = useSeriesFit(points.t, points.y, options as SeriesFitOptions);
   const outcome = result?.outcome ?? null;
