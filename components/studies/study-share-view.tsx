@@ -6,18 +6,9 @@ import { formatNumber, formatSeconds, formatWithUncertainty } from "@/lib/format
 import { sceneToSvg } from "@/lib/reports/fit-plot";
 import { ratePlotScene } from "@/lib/reports/rate-plot";
 import { reviewStatus } from "@/lib/reviews";
-import { getStudyRecord, PREDICTION_CAUTION, type StudyGlobal } from "@/lib/studies";
+import { getStudyRecord, PREDICTION_CAUTION } from "@/lib/studies";
 import type { ReactNode } from "react";
 
-interface TempResults {
-  n: number;
-  temperatures?: number;
-  weighted: boolean;
-  ea: { value: number; se: number | null; ci95?: [number, number] | null };
-  eyring: { dH: { value: number; se: number | null }; dS: { value: number; se: number | null } };
-  prediction: null | { target_c: number; k: number; k_pi95: [number, number]; t90_s: number; warning: string | null };
-  global?: StudyGlobal;
-}
 
 const kj = (v: number | null | undefined) => (v == null ? null : v / 1000);
 
@@ -25,9 +16,7 @@ export async function StudyShareView({ labId, id, banner }: { labId: number; id:
   const db = await getDb();
   const st = await getStudyRecord(db, labId, id);
   const review = await reviewStatus(db, labId, id, "study");
-  const temperature = st.kind === "temperature";
-  const r = st.results as unknown as TempResults;
-  const k2 = st.results as unknown as { k2?: { value: number; se: number } };
+  const res = st.results;
   return (
     <div className="mx-auto max-w-5xl space-y-6">
       {banner}
@@ -39,27 +28,27 @@ export async function StudyShareView({ labId, id, banner }: { labId: number; id:
         <p className="break-all font-mono text-xs text-ink-500">content hash {st.content_hash}</p>
       </header>
       <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Results" data-testid="shared-study-results">
-        {temperature ? (
+        {res.kind === "temperature" ? (
           <>
-            <p className="num font-mono text-xl">Ea = {formatWithUncertainty(kj(r.ea.value), kj(r.ea.se))} kJ mol⁻¹</p>
+            <p className="num font-mono text-xl">Ea = {formatWithUncertainty(kj(res.ea.value), kj(res.ea.se))} kJ mol⁻¹</p>
             <p className="text-sm">
-              ΔH‡ = {formatWithUncertainty(kj(r.eyring.dH.value), kj(r.eyring.dH.se))} kJ mol⁻¹ · ΔS‡ = {formatWithUncertainty(r.eyring.dS.value, r.eyring.dS.se)} J mol⁻¹ K⁻¹ · {r.n} rate constants at{" "}
-              {r.temperatures ?? r.n} temperatures
+              ΔH‡ = {formatWithUncertainty(kj(res.eyring.dH.value), kj(res.eyring.dH.se))} kJ mol⁻¹ · ΔS‡ = {formatWithUncertainty(res.eyring.dS.value, res.eyring.dS.se)} J mol⁻¹ K⁻¹ · {res.n} rate constants at{" "}
+              {res.temperatures ?? res.n} temperatures
             </p>
-            {r.global?.available && r.global.ea && (
+            {res.global?.available && res.global.ea && (
               <p className="text-sm">
-                All curves fitted together: Ea = {formatWithUncertainty(kj(r.global.ea.value), kj(r.global.ea.se))} kJ mol⁻¹
+                All curves fitted together: Ea = {formatWithUncertainty(kj(res.global.ea.value), kj(res.global.ea.se))} kJ mol⁻¹
               </p>
             )}
           </>
         ) : (
-          <p className="num font-mono text-xl">k2 = {formatWithUncertainty(k2.k2?.value ?? null, k2.k2?.se ?? null)} L mol⁻¹ s⁻¹</p>
+          <p className="num font-mono text-xl">k2 = {formatWithUncertainty(res.k2.value, res.k2.se)} L mol⁻¹ s⁻¹</p>
         )}
       </section>
-      {temperature && (
+      {res.kind === "temperature" && (
         <section className="grid gap-4 lg:grid-cols-2">
           {(["arrhenius", "eyring"] as const).map((kind) => {
-            const scene = ratePlotScene(kind, st.members, r.weighted);
+            const scene = ratePlotScene(kind, st.members, res.weighted);
             return (
               <figure key={kind} className="rounded-cell bg-paper-raised p-4 shadow-lift" data-testid={`shared-${kind}`}>
                 {/* Our own SVG: every text in it is escaped (sceneToSvg). */}
@@ -73,13 +62,13 @@ export async function StudyShareView({ labId, id, banner }: { labId: number; id:
           })}
         </section>
       )}
-      {temperature && r.prediction && (
+      {res.kind === "temperature" && res.prediction && (
         <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Prediction">
           <p className="text-sm">
-            At {r.prediction.target_c} °C: k = {formatNumber(r.prediction.k, 4)} s⁻¹ (95 % prediction interval {formatNumber(r.prediction.k_pi95[0], 3)} … {formatNumber(r.prediction.k_pi95[1], 3)}), t90{" "}
-            {formatSeconds(r.prediction.t90_s)}.
+            At {res.prediction.target_c} °C: k = {formatNumber(res.prediction.k, 4)} s⁻¹ (95 % prediction interval {formatNumber(res.prediction.k_pi95[0], 3)} … {formatNumber(res.prediction.k_pi95[1], 3)}), t90{" "}
+            {formatSeconds(res.prediction.t90_s)}.
           </p>
-          {r.prediction.warning && <p className="mt-2 text-sm text-caution-700">{r.prediction.warning}</p>}
+          {res.prediction.warning && <p className="mt-2 text-sm text-caution-700">{res.prediction.warning}</p>}
         </section>
       )}
       <p className="text-sm text-ink-700">{PREDICTION_CAUTION}</p>

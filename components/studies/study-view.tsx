@@ -18,24 +18,6 @@ import type { StudyGlobal, StudyRecord } from "@/lib/studies";
 import { GlobalFitSection } from "./global-fit";
 import { problemText, sendJson } from "@/lib/http/client";
 
-type TempResults = {
-  n: number;
-  /** Distinct temperatures (replicates at one temperature count once); absent in studies saved before it was stored. */
-  temperatures?: number;
-  method: string;
-  weighted: boolean;
-  ea: { value: number; se: number | null; ci95?: [number, number] | null };
-  lnA: { value: number; se: number | null };
-  corrEaLnA: number | null;
-  r2: number | null;
-  eyring: { dH: { value: number; se: number | null }; dS: { value: number; se: number | null } };
-  q10: Array<{ from_c: number; to_c: number; q10: number }>;
-  band: Array<{ temperatureK: number; lnK: number; low: number; high: number }>;
-  residuals: Array<{ temperature_c: number; residual: number }>;
-  warnings: string[];
-  weighting: string;
-  global?: StudyGlobal;
-};
 
 const kj = (v: number | null | undefined) => (v == null ? null : v / 1000);
 
@@ -69,8 +51,8 @@ export function StudyView({
   const [removed, setRemoved] = useState<number[]>([]);
   const [added, setAdded] = useState<string>("");
   const prediction = useMemo(() => {
-    if (study.kind !== "temperature") return null;
-    const weighted = (study.results as unknown as { weighted: boolean }).weighted;
+    if (study.results.kind !== "temperature") return null;
+    const weighted = study.results.weighted;
     const points: RatePoint[] = study.members.map((m) => ({ temperatureK: celsiusToKelvin(m.temperature_used_c!), k: m.k, se: weighted ? m.se : null }));
     const c = Number(target.replace(",", "."));
     if (!target.trim() || !Number.isFinite(c) || points.length < 3) return null;
@@ -82,8 +64,8 @@ export function StudyView({
     }
   }, [target, study]);
 
-  if (study.kind === "excess") {
-    const r = study.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number; global?: StudyGlobal };
+  if (study.results.kind === "excess") {
+    const r = study.results;
     return (
       <div>
         <h1 className="text-2xl font-semibold">{study.name}</h1>
@@ -97,7 +79,7 @@ export function StudyView({
       </div>
     );
   }
-  const r = study.results as unknown as TempResults;
+  const r = study.results;
   const members = study.members.map((m) => ({ ...m, T: celsiusToKelvin(m.temperature_used_c!) }));
   const x = (T: number) => 1000 / T;
 

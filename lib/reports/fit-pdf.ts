@@ -4,13 +4,13 @@
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
-import { auditSentence } from "@/lib/audit/sentences";
 import { verifyFitVersion } from "@/lib/integrity";
 import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { listComments, reviewStatus } from "@/lib/reviews";
 import { getRunDetail, readSeries } from "@/lib/runs";
 import { drawSceneOnPdf, fitPlotScene, plotAxisLabel, type PdfSurface } from "./fit-plot";
+import { printAudit, printComments, printSignatures } from "./pdf-trail";
 import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
 
 export { printable } from "./pdf-fonts";
@@ -92,21 +92,9 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   heading("Versions");
   for (const v of versions) line(`Version ${v.version}, ${v.created_at.replace("T", " ").slice(0, 16)} UTC, ${v.author ?? "—"}${v.reason ? `: ${v.reason}` : ""} (${v.changes.join("; ")})`, 9);
 
-  heading("Comments");
-  if (comments.length === 0) line("None.", 9);
-  for (const c of comments) line(`${c.created_at.replace("T", " ").slice(0, 16)} UTC · ${c.author}${c.parent_id ? " (reply)" : ""}: ${c.body}`, 9);
-
-  heading("Signatures");
-  if (review.signatures.length === 0) line("None.", 9);
-  for (const s of review.signatures)
-    line(`${s.printed_name} · ${s.meaning.toUpperCase()} · ${s.signed_at.replace("T", " ").slice(0, 19)} UTC · signed hash ${s.content_hash}${s.void ? " · VOID (the record no longer matches)" : ""}`, 9);
-
-  heading("Audit events of this record");
-  for (const a of audit)
-    line(
-      `${a.at.replace("T", " ").slice(0, 19)} UTC  ${auditSentence({ action: a.action, actorLabel: a.actor_name ?? a.actor_label, actorUserId: a.actor_user_id, objectType: a.object_type, objectId: a.object_id, objectVersion: a.object_version, oldValues: a.old_values, newValues: a.new_values, reason: a.reason })}`,
-      8,
-    );
+  printComments(line, heading, comments);
+  printSignatures(line, heading, review.signatures);
+  printAudit(line, heading, audit);
 
   doc.moveDown(0.8);
   line("An estimate for qualified review: shelf-life and release decisions follow the lab's SOPs and local regulations.", 8);

@@ -45,9 +45,12 @@ export interface PlotScene {
   description: string;
 }
 
-/** Nice tick steps (1, 2, 5 × 10ⁿ), about `count` of them: the common axis-labelling rule (Heckbert, Graphics Gems). */
-export function niceTicks(lo: number, hi: number, count = 5): number[] {
-  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return [];
+/**
+ * The nice step (1, 2, 5 × 10ⁿ) for about `count` intervals over [lo, hi] (widened when lo = hi): the common
+ * axis-labelling rule (Heckbert, Graphics Gems). A step a rounding error above 1, 2 or 5 × 10ⁿ still takes that step
+ * (0.5 / 5 may come out as 0.10000000000000002).
+ */
+function niceStep(lo: number, hi: number, count: number): { lo: number; hi: number; step: number } {
   if (hi === lo) {
     const d = Math.abs(lo) * 0.05 || 1;
     lo -= d;
@@ -55,11 +58,7 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   }
   const raw = (hi - lo) / Math.max(1, count);
   const mag = 10 ** Math.floor(Math.log10(raw));
-  // A step a rounding error above 1, 2 or 5 × 10ⁿ still takes that step (0.5 / 5 may come out as 0.10000000000000002).
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw * (1 - 1e-9))!;
-  const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
-  return out;
+  return { lo, hi, step: [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw * (1 - 1e-9))! };
 }
 
 function tickLabel(v: number, step: number): string {
@@ -70,16 +69,12 @@ function tickLabel(v: number, step: number): string {
 
 export function ticks(lo: number, hi: number, count: number): { values: number[]; ticks: (map: (v: number) => number) => Tick[]; lo: number; hi: number } {
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) return { values: [], lo: 0, hi: 1, ticks: () => [] };
-  if (hi === lo) {
-    const d = Math.abs(lo) * 0.05 || 1;
-    lo -= d;
-    hi += d;
-  }
-  // The nice step for about `count` intervals, then the axis from the tick at or below lo to the tick at or above hi,
-  // so no point sits on the frame and every tick between is labelled.
-  const raw = (hi - lo) / Math.max(1, count);
-  const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw * (1 - 1e-9))!;
+  // The axis runs from the tick at or below lo to the tick at or above hi, so no point sits on the frame and every
+  // tick between is labelled.
+  const n = niceStep(lo, hi, count);
+  const step = n.step;
+  lo = n.lo;
+  hi = n.hi;
   const first = Math.floor(lo / step + 1e-9),
     last = Math.ceil(hi / step - 1e-9);
   const values: number[] = [];

@@ -4,33 +4,18 @@
 import PDFDocument from "pdfkit";
 import type { Knex } from "knex";
 import { auditRowsOfObject } from "@/db/queries/audit";
-import { auditSentence } from "@/lib/audit/sentences";
 import { formatNumber, formatSeconds, formatWithUncertainty } from "@/lib/format/number";
 import { verifyStudyVersion } from "@/lib/integrity";
 import { listComments, reviewStatus } from "@/lib/reviews";
-import { getStudyRecord, PREDICTION_CAUTION, type StudyGlobal } from "@/lib/studies";
+import { getStudyRecord, PREDICTION_CAUTION, studyResultsOf, type StudyGlobal } from "@/lib/studies";
 import { drawSceneOnPdf, type PdfSurface } from "./fit-plot";
+import { printAudit, printComments, printSignatures } from "./pdf-trail";
 import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
 import { ratePlotScene, residualPanelsScene } from "./rate-plot";
 
 const kj = (v: number | null | undefined) => (v === null || v === undefined ? null : v / 1000);
 const hours = (s: number) => (s >= 86400 * 2 ? `${formatNumber(s / 86400, 3)} d` : formatSeconds(s));
 
-interface TemperatureResults {
-  n: number;
-  temperatures?: number;
-  weighted: boolean;
-  weighting: string;
-  ea: { value: number; se: number | null; ci95?: [number, number] | null };
-  lnA: { value: number; se: number | null };
-  corrEaLnA: number | null;
-  r2: number | null;
-  eyring: { dH: { value: number; se: number | null }; dS: { value: number; se: number | null } };
-  q10: Array<{ from_c: number; to_c: number; q10: number }>;
-  warnings: string[];
-  prediction: null | { target_c: number; k: number; k_pi95: [number, number]; half_life_s: number; t90_s: number; t90_pi95_s: [number, number]; extrapolated: boolean; extrapolation_c: number; warning: string | null; caution: string };
-  global?: StudyGlobal;
-}
 
 export async function studyReportPdf(db: Knex, labId: number, labName: string, id: number): Promise<{ name: string; bytes: Buffer }> {
   const st = await getStudyRecord(db, labId, id);
@@ -92,8 +77,9 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
       9,
     );
 
-  if (st.kind === "excess") {
-    const r = st.results as unknown as { k2: { value: number; se: number }; intercept: { value: number; se: number }; r2: number; global?: StudyGlobal };
+  const results = studyResultsOf(st.results);
+  if (results.kind === "excess") {
+    const r = results.r;
     heading("Second-order rate constant (two-stage: each run fitted, then k_obs on [B]0)");
     line(`k2 = ${formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹`, 14, "bold");
     line(`Intercept ${formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ · r² ${r.r2.toFixed(5)}`, 9);
@@ -108,7 +94,7 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
       residualPanels(g);
     }
   } else {
-    const r = st.results as unknown as TemperatureResults;
+    const r = results.r;
     heading("Two-stage result (each run fitted, then Arrhenius on the rate constants)");
     line(`Ea = ${formatWithUncertainty(kj(r.ea.value), kj(r.ea.se))} kJ mol⁻¹`, 14, "bold");
     if (r.ea.ci95) line(`95 % CI ${formatNumber(kj(r.ea.ci95[0]), 4)} … ${formatNumber(kj(r.ea.ci95[1]), 4)} kJ mol⁻¹`, 9);
@@ -146,24 +132,11 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
   }
   line(PREDICTION_CAUTION, 9);
 
-  heading("Comments");
-  if (comments.length === 0) line("None.", 9);
-  for (const c of comments) line(`${c.created_at.replace("T", " ").slice(0, 16)} UTC · ${c.author}${c.parent_id ? " (reply)" : ""}: ${c.body}`, 9);
-
-  heading("Signatures");
-  if (review.signatures.length === 0) line("None.", 9);
-  for (const s of review.signatures)
-    line(`${s.printed_name} · ${s.meaning.toUpperCase()} · ${s.signed_at.replace("T", " ").slice(0, 19)} UTC · signed hash ${s.content_hash}${s.void ? " · VOID (the record no longer matches)" : ""}`, 9);
-
+  printComments(line, heading, comments);
+  printSignatures(line, heading, review.signatures);
   heading("Versions");
   for (const v of st.versions) line(`Version ${v.version}, ${v.created_at.replace("T", " ").slice(0, 16)} UTC, ${v.author ?? "—"}${v.reason ? `: ${v.reason}` : ""}`, 9);
-
-  heading("Audit events of this record");
-  for (const a of audit)
-    line(
-      `${a.at.replace("T", " ").slice(0, 19)} UTC  ${auditSentence({ action: a.action, actorLabel: a.actor_name ?? a.actor_label, actorUserId: a.actor_user_id, objectType: a.object_type, objectId: a.object_id, objectVersion: a.object_version, oldValues: a.old_values, newValues: a.new_values, reason: a.reason })}`,
-      8,
-    );
+  printAudit(line, heading, audit);
   doc.end();
   return { name: `study-${st.record_id}-v${st.version}.pdf`, bytes: await done };
 }

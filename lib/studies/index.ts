@@ -363,6 +363,15 @@ export async function changeStudy(db: Knex, user: SignedInUser, id: number, chan
 
 /** A study version's results: the two-stage numbers, and for temperature studies all curves fitted together. */
 export type StudyResults = ReturnType<typeof computeStudy> & { global?: StudyGlobal };
+/** A temperature study's results (Arrhenius, Eyring, Q10, prediction, the global fit). */
+export type TemperatureStudyResults = Extract<ReturnType<typeof computeStudy>, { kind: "temperature" }> & { global?: StudyGlobal };
+/** An excess-concentration series' results (k2 and the global fit). */
+export type ExcessStudyResults = Extract<ReturnType<typeof computeStudy>, { kind: "excess" }> & { global?: StudyGlobal };
+
+/** The results narrowed by their kind (the union the service stores), instead of a cast at each use. */
+export function studyResultsOf(results: StudyResults): { kind: "temperature"; r: TemperatureStudyResults } | { kind: "excess"; r: ExcessStudyResults } {
+  return results.kind === "temperature" ? { kind: "temperature", r: results as TemperatureStudyResults } : { kind: "excess", r: results as ExcessStudyResults };
+}
 
 export async function getStudyRecord(db: Knex, labId: number, id: number) {
   const s = await getStudy(db, labId, id);
