@@ -3,7 +3,7 @@
 // carrying the server's message, code and field issues, or a plain message when the server could not be reached, so
 // no Save button stays disabled after a dropped connection. `problemText` is the one way those are shown.
 import useSWRMutation from "swr/mutation";
-import { FetchError } from "./fetcher";
+import { failureOf, FetchError } from "./fetcher";
 
 export { FetchError } from "./fetcher";
 
@@ -22,17 +22,12 @@ export async function sendJson<T = unknown>(url: string, opts: { method?: Method
   } catch {
     throw new FetchError("The server could not be reached, so nothing was saved. Check the connection and try again.", 0, "network");
   }
-  let out: unknown = null;
+  if (!res.ok) throw await failureOf(res);
   try {
-    out = await res.json();
+    return (await res.json()) as T;
   } catch {
-    // an empty or non-JSON reply
+    return null as T; // an empty reply to a change that succeeded
   }
-  if (!res.ok) {
-    const e = (out as { error?: { message?: string; code?: string; issues?: Array<{ path: string; message: string; line?: number }> } } | null)?.error;
-    throw new FetchError(e?.message ?? `The server answered ${res.status}.`, res.status, e?.code, e?.issues);
-  }
-  return out as T;
 }
 
 /** What to tell the user about a failure: the server's message, then each field issue ("field: problem"). */

@@ -12,36 +12,26 @@ export class FetchError extends Error {
   }
 }
 
+/** The FetchError of a refused reply: the server's message, code and issues, or its status line when it sent no JSON. */
+export async function failureOf(res: Response): Promise<FetchError> {
+  try {
+    const e = ((await res.json()) as { error?: { message?: string; code?: string; issues?: Array<{ path: string; message: string; line?: number }> } } | null)?.error;
+    return new FetchError(e?.message ?? `The server answered ${res.status}.`, res.status, e?.code, e?.issues);
+  } catch {
+    return new FetchError(`The server answered ${res.status}.`, res.status);
+  }
+}
+
 export async function fetcher<T>(url: string): Promise<T> {
   const res = await fetch(url, { headers: { accept: "application/json" } });
-  if (!res.ok) {
-    let message = `The server answered ${res.status}.`;
-    let code: string | undefined;
-    try {
-      const body = (await res.json()) as { error?: { message?: string; code?: string } };
-      if (body.error?.message) message = body.error.message;
-      code = body.error?.code;
-    } catch {
-      // not JSON: keep the status line
-    }
-    throw new FetchError(message, res.status, code);
-  }
+  if (!res.ok) throw await failureOf(res);
   return (await res.json()) as T;
 }
 
 /** Every point of a series from its binary endpoint (n float64 times, then n readings, little-endian). */
 export async function seriesPointsFetcher(url: string): Promise<{ t: number[]; y: number[] }> {
   const res = await fetch(url, { headers: { accept: "application/octet-stream" } });
-  if (!res.ok) {
-    let message = `The server answered ${res.status}.`;
-    try {
-      const body = (await res.json()) as { error?: { message?: string } };
-      if (body.error?.message) message = body.error.message;
-    } catch {
-      // not JSON
-    }
-    throw new FetchError(message, res.status);
-  }
+  if (!res.ok) throw await failureOf(res);
   const buf = await res.arrayBuffer();
   const n = Number(res.headers.get("x-series-points") ?? buf.byteLength / 16);
   if (!Number.isInteger(n) || buf.byteLength !== 16 * n) throw new FetchError(`The series arrived cut short (${buf.byteLength} bytes for ${n} points); reload the page.`, 502);

@@ -32,6 +32,7 @@ import {
 } from "@/lib/kinetics";
 import { getFit } from "@/db/queries/fits";
 import { runJob } from "@/lib/jobs/pool";
+import { decimateIndices } from "@/lib/plot/decimate";
 import { readSeries } from "@/lib/runs";
 import type { ChangeStudy, CreateStudy, StudyMember } from "@/lib/schemas/studies";
 
@@ -186,25 +187,9 @@ export interface StudyGlobal {
  * worker thread: first order, each run's a0 and A∞ its own, k following the shared law: Arrhenius (Ea and kref shared)
  * for temperature studies, k_obs = k2·[B]0 (k2 shared) for excess-concentration series.
  */
-/** At most 150 residuals of a run for its panel: the lowest and highest of each of 75 buckets in time, 4 digits. */
+/** At most about 150 residuals of a run for its panel: the app's one decimator over 75 buckets in time, 4 digits. */
 function residualStrip(t: ArrayLike<number>, r: ArrayLike<number>): { t: number[]; r: number[] } {
-  const n = t.length;
-  const keep: number[] = [];
-  if (n <= 150) for (let i = 0; i < n; i++) keep.push(i);
-  else {
-    const buckets = 75;
-    for (let b = 0; b < buckets; b++) {
-      const a = Math.floor((b * n) / buckets),
-        e = Math.floor(((b + 1) * n) / buckets);
-      let lo = a,
-        hi = a;
-      for (let i = a; i < e; i++) {
-        if (r[i]! < r[lo]!) lo = i;
-        if (r[i]! > r[hi]!) hi = i;
-      }
-      keep.push(...(lo < hi ? [lo, hi] : lo > hi ? [hi, lo] : [lo]));
-    }
-  }
+  const keep = decimateIndices(t, r, 75);
   const p4 = (v: number) => Number(v.toPrecision(4));
   return { t: keep.map((i) => p4(t[i]!)), r: keep.map((i) => p4(r[i]!)) };
 }
