@@ -5,7 +5,8 @@ export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME === "nodejs") {
     const { getDb } = await import("./db");
     const db = await getDb();
-    if (!String(db.client.config.client).includes("sqlite")) {
+    const { isSqliteDb } = await import("./db/config");
+    if (!isSqliteDb(db)) {
       const { startQueueWorker } = await import("./lib/jobs/background");
       await startQueueWorker(db);
     }

@@ -50,3 +50,8 @@ export function configuredDatabase(env: NodeJS.ProcessEnv = process.env): { conf
   const file = env.DATABASE_FILE ?? DEFAULT_DATABASE_FILE;
   return { config: sqliteConfig(file), where: path.resolve(file), kind: "sqlite" };
 }
+
+/** Whether a Knex instance speaks SQLite (else PostgreSQL): the one test of the dialect outside migrations. */
+export function isSqliteDb(db: { client: { config: { client?: unknown } } }): boolean {
+  return String(db.client.config.client).includes("sqlite");
+}

@@ -5,6 +5,7 @@ import type { Knex } from "knex";
 import { RateLimiterPostgres, RateLimiterRes, RateLimiterSQLite, type RateLimiterStoreAbstract } from "rate-limiter-flexible";
 import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
+import { isSqliteDb } from "@/db/config";
 
 interface Rule {
   points: number;
@@ -54,7 +55,7 @@ function limiterFor(db: Knex, rule: RateRule): RateLimiterStoreAbstract {
   if (!l) {
     const r = RATE_RULES[rule];
     const opts = { storeClient: db, storeType: "knex", tableName: "rate_limits", tableCreated: true, clearExpiredByTimeout: false, keyPrefix: rule, points: r.points, duration: r.duration };
-    l = String(db.client.config.client).includes("sqlite") ? new RateLimiterSQLite(opts) : new RateLimiterPostgres(opts);
+    l = isSqliteDb(db) ? new RateLimiterSQLite(opts) : new RateLimiterPostgres(opts);
     byRule.set(rule, l);
   }
   return l;

@@ -10,6 +10,7 @@ import { isUniqueViolation } from "@/lib/records";
 import { runJob } from "./pool";
 import { storeValidationReport } from "@/lib/validation/records";
 import type { DbJobRow } from "@/db/tables";
+import { isSqliteDb } from "@/db/config";
 
 export const BACKGROUND_KINDS = ["validation-run"] as const;
 export type BackgroundKind = (typeof BACKGROUND_KINDS)[number];
@@ -44,7 +45,7 @@ export function jobView(j: DbJobRow): JobView {
 }
 
 function isPostgres(db: Knex): boolean {
-  return !String(db.client.config.client).includes("sqlite");
+  return !isSqliteDb(db);
 }
 
 /** Runs a claimed job to its end: progress as it goes, the result or the failure stored on the row. */
