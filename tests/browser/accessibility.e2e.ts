@@ -1,7 +1,8 @@
 // axe-core (npm, the Deque engine) on the main pages of each role: no colour-contrast failure (WCAG 2 AA, 1.4.3) and
 // no form field without a label (WCAG 2 A, 1.3.1 / 4.1.2). The rules checked are listed in RULES.
 import { createRequire } from "node:module";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { openBrowser, signedInPage } from "./chromium";

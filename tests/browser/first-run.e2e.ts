@@ -7,7 +7,8 @@ import fs from "node:fs";
 import net from "node:net";
 import os from "node:os";
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { openBrowser } from "./chromium";
 

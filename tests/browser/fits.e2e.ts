@@ -1,7 +1,8 @@
 // The fitting workspace as an analyst uses it: open a demo run's fit, see both default fits with residuals, exclude a
 // point with a reason, fix A∞, save version 2, see it listed with the exclusion and its reason, and check the CSV's k.
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { formatWithUncertainty } from "@/lib/format/number";

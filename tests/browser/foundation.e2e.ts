@@ -1,6 +1,7 @@
 // The foundation as a person meets it: sign-in, each role's navigation, lockout, redirects and 403s.
 import path from "node:path";
-import { afterEach, beforeEach, describe, expect, inject, it } from "vitest";
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import { WRONG_CREDENTIALS } from "@/lib/auth/sign-in";
 import type { BrowserContext, Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";

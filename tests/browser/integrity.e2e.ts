@@ -3,7 +3,8 @@
 // shows a tamper warning and the administrator's integrity check names it.
 import path from "node:path";
 import Database from "better-sqlite3";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { signedInPage } from "./chromium";

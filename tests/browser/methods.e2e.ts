@@ -5,7 +5,8 @@
 import fs from "node:fs";
 import path from "node:path";
 import { simpleParser } from "mailparser";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { openBrowser, signedInPage } from "./chromium";

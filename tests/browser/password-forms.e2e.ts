@@ -3,7 +3,8 @@
 import fs from "node:fs";
 import path from "node:path";
 import { simpleParser } from "mailparser";
-import { afterAll, describe, expect, inject, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import { WRONG_CREDENTIALS } from "@/lib/auth/sign-in";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";

@@ -2,7 +2,8 @@
 // open one and see its plot, and be offered the existing run when the same file comes again.
 import fs from "node:fs";
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { signedInPage } from "./chromium";

@@ -1,7 +1,8 @@
 // Security headers on pages and the API, and the app's own pages (plots included) render with no Content-Security-
 // Policy violation in Chromium's console. Header choices: OWASP Secure Headers Project (common practice).
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { DEMO_USERS } from "@/db/seeds/demo";
 import { signedInPage } from "./chromium";
