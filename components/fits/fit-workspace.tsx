@@ -229,7 +229,6 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   const yLabel = outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`;
   const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
   const long = shownSets.inc.length + shownSets.out.length > 1500;
-  const show = (idx: number[]) => idx;
   const incIdx = shownSets.inc,
     exIdx = shownSets.ex,
     outIdx = shownSets.out;
@@ -250,9 +249,9 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
                 type: long ? "scattergl" : "scatter",
                 mode: "markers",
                 name: "included",
-                x: show(incIdx).map((i) => points.t[i]! / tScale),
-                y: show(incIdx).map((i) => conv(points.y[i]!)),
-                customdata: show(incIdx),
+                x: incIdx.map((i) => points.t[i]! / tScale),
+                y: incIdx.map((i) => conv(points.y[i]!)),
+                customdata: incIdx,
                 marker: { color: colour, size: 6 },
               },
               {
@@ -268,9 +267,9 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
                 type: outIdx.length > 2000 ? "scattergl" : "scatter",
                 mode: "markers",
                 name: "outside the window",
-                x: show(outIdx).map((i) => points.t[i]! / tScale),
-                y: show(outIdx).map((i) => conv(points.y[i]!)),
-                customdata: show(outIdx),
+                x: outIdx.map((i) => points.t[i]! / tScale),
+                y: outIdx.map((i) => conv(points.y[i]!)),
+                customdata: outIdx,
                 marker: { color: "#8a94a6", size: 7, symbol: "circle-open" },
               },
               ...outcome.models

@@ -1,24 +1,23 @@
 // Ingest: the raw file's SHA-256, the parser's choice, the column mapping, and the one transaction that stores raw file,
 // run, series and audit event together (or nothing at all).
-import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { findRawFileBySha, findRunsOfRawFile, insertRawFile, insertRun, insertSeries, listSeriesOfRun, packF64 } from "@/db/queries/runs";
 import { getLabSettingsRow } from "@/db/queries/admin";
 import { newestMethodVersion } from "@/db/queries/methods";
 import { recordAudit } from "@/lib/audit";
-import { storeRawBytes } from "@/lib/storage/raw-store";
+import { sha256Hex, storeRawBytes } from "@/lib/storage/raw-store";
 import { AppError } from "@/lib/errors";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
 import { PARSE_LIMITS } from "@/parsers/limits";
 import { runJob } from "@/lib/jobs/pool";
 import { ParseError, type ParsedExport, type ParsedSeries } from "@/parsers";
 
+// The hash raw files are keyed by, for callers that ingest.
+export { sha256Hex };
+
 /** Limits stated on the upload page: the size here, the rest while the parsers read (parsers/limits.ts), again after. */
 export const INGEST_LIMITS = { maxBytes: 50 * 1024 * 1024, maxPoints: PARSE_LIMITS.maxPoints, maxChannels: PARSE_LIMITS.maxChannels } as const;
 
-export function sha256Hex(bytes: Uint8Array): string {
-  return createHash("sha256").update(bytes).digest("hex");
-}
 
 function refuse(fileName: string, e: ParseError): AppError {
   return new AppError({ code: "unprocessable", message: `${fileName}: ${e.message}`, line: e.line });

@@ -4,7 +4,7 @@
 // On PostgreSQL the job is handed out through pg-boss, so any app process behind the same database may take it; on
 // SQLite (one machine) the process that queued it runs it.
 import type { Knex } from "knex";
-import { activeJobOf, claimJob, failJob, finishJob, getLabJob, insertJob, setJobProgress } from "@/db/queries/jobs";
+import { activeJobOf, claimJob, failJob, finishJob, getJob, getLabJob, insertJob, setJobProgress } from "@/db/queries/jobs";
 import { AppError } from "@/lib/errors";
 import { isUniqueViolation } from "@/lib/records";
 import { runJob } from "./pool";
@@ -44,13 +44,9 @@ export function jobView(j: DbJobRow): JobView {
   };
 }
 
-function isPostgres(db: Knex): boolean {
-  return !isSqliteDb(db);
-}
-
 /** Runs a claimed job to its end: progress as it goes, the result or the failure stored on the row. */
 export async function executeJob(db: Knex, id: number): Promise<void> {
-  const job = await db("jobs").where({ id }).first();
+  const job = await getJob(db, id);
   if (!job || !(await claimJob(db, id, new Date().toISOString()))) return;
   let last = 0;
   let writing: Promise<void> = Promise.resolve();
@@ -76,7 +72,7 @@ export async function executeJob(db: Knex, id: number): Promise<void> {
 // ---- PostgreSQL: pg-boss hands jobs to any listening process ----
 
 type Boss = import("pg-boss");
-const holder = globalThis as unknown as { __halflightBoss?: Map<string, Promise<Boss>> };
+const holder = globalThis as unknown as { __halflightBoss?: Map<Knex, Promise<Boss>> };
 
 interface PgConnection {
   query(text: string, values?: unknown[]): Promise<{ rows: unknown[] }>;
@@ -101,19 +97,10 @@ function bossDb(db: Knex) {
   };
 }
 
-const keys = new WeakMap<Knex, string>();
-let nextKey = 1;
-function keyOf(db: Knex): string {
-  let k = keys.get(db);
-  if (!k) keys.set(db, (k = `db${nextKey++}`));
-  return k;
-}
-
 /** This process's pg-boss on the database, started and listening (once per Knex instance). */
 export function startQueueWorker(db: Knex): Promise<Boss> {
-  const url = keyOf(db);
   holder.__halflightBoss ??= new Map();
-  let started = holder.__halflightBoss.get(url);
+  let started = holder.__halflightBoss.get(db);
   if (!started) {
     started = (async () => {
       const { default: PgBoss } = await import("pg-boss");
@@ -126,8 +113,8 @@ export function startQueueWorker(db: Knex): Promise<Boss> {
       });
       return boss;
     })();
-    holder.__halflightBoss.set(url, started);
-    started.catch(() => holder.__halflightBoss?.delete(url));
+    holder.__halflightBoss.set(db, started);
+    started.catch(() => holder.__halflightBoss?.delete(db));
   }
   return started;
 }
@@ -152,7 +139,7 @@ export async function enqueueJob(db: Knex, who: { labId: number; userId: number 
     const active = await activeJobOf(db, who.labId, kind);
     throw new AppError({ code: "conflict", message: `A ${kind === "validation-run" ? "validation run" : kind} is already under way in this lab${active ? ` (job ${active.id})` : ""}; wait for it to finish.` });
   }
-  if (isPostgres(db)) {
+  if (!isSqliteDb(db)) {
     try {
       const boss = await startQueueWorker(db);
       await boss.send(QUEUE, { jobId: id }, { retryLimit: 0, expireInSeconds: Math.ceil(validationTimeLimitMs() / 1000) + 60 });

@@ -83,6 +83,17 @@ function nonlinearModel(id: string): NonlinearModel {
   return fn;
 }
 
+/**
+ * k at T (kelvin) in the Arrhenius form k = kref·exp(−(Ea/R)(1/T − 1/Tref)), with its derivatives with respect to Ea
+ * and kref (for the Jacobian and the delta method).
+ */
+export function arrheniusFormRate(ea: number, kref: number, temperatureK: number, trefK: number): { k: number; dEa: number; dKref: number } {
+  const u = 1 / temperatureK - 1 / trefK;
+  const e = Math.exp((-ea / GAS_R) * u);
+  const k = kref * e;
+  return { k, dEa: (-k * u) / GAS_R, dKref: e };
+}
+
 /** Fits every run together. Throws GlobalFitError for a specification the data cannot carry (named plainly). */
 export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: GlobalForm, opts: { deadline?: number } = {}): GlobalFitResult {
   const fn = nonlinearModel(modelId);
@@ -203,11 +214,9 @@ export function fitGlobal(modelId: string, runsIn: readonly GlobalRun[], form: G
       return [runs[i]!.excessMolL!];
     }
     if (form.kind !== "arrhenius") return null;
-    const u = 1 / runs[i]!.temperatureK! - 1 / trefK!;
-    const e = Math.exp((-x[0]! / GAS_R) * u);
-    const k = x[1]! * e;
-    out[mp.indexOf("k")] = k;
-    return [(-k * u) / GAS_R, e];
+    const a = arrheniusFormRate(x[0]!, x[1]!, runs[i]!.temperatureK!, trefK!);
+    out[mp.indexOf("k")] = a.k;
+    return [a.dEa, a.dKref];
   };
 
   const pBuf = new Float64Array(mp.length);

@@ -7,7 +7,7 @@ import { auditRowsOfObject } from "@/db/queries/audit";
 import { formatNumber, formatSeconds, formatWithUncertainty } from "@/lib/format/number";
 import { verifyStudyVersion } from "@/lib/integrity";
 import { listComments, reviewStatus } from "@/lib/reviews";
-import { getStudyRecord, PREDICTION_CAUTION, studyResultsOf, type StudyGlobal } from "@/lib/studies";
+import { getStudyRecord, PREDICTION_CAUTION, type StudyGlobal } from "@/lib/studies";
 import { drawSceneOnPdf, type PdfSurface } from "./fit-plot";
 import { printAudit, printComments, printSignatures } from "./pdf-trail";
 import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
@@ -77,9 +77,9 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
       9,
     );
 
-  const results = studyResultsOf(st.results);
+  const results = st.results;
   if (results.kind === "excess") {
-    const r = results.r;
+    const r = results;
     heading("Second-order rate constant (two-stage: each run fitted, then k_obs on [B]0)");
     line(`k2 = ${formatWithUncertainty(r.k2.value, r.k2.se)} L mol⁻¹ s⁻¹`, 14, "bold");
     line(`Intercept ${formatWithUncertainty(r.intercept.value, r.intercept.se)} s⁻¹ · r² ${r.r2.toFixed(5)}`, 9);
@@ -94,7 +94,7 @@ export async function studyReportPdf(db: Knex, labId: number, labName: string, i
       residualPanels(g);
     }
   } else {
-    const r = results.r;
+    const r = results;
     heading("Two-stage result (each run fitted, then Arrhenius on the rate constants)");
     line(`Ea = ${formatWithUncertainty(kj(r.ea.value), kj(r.ea.se))} kJ mol⁻¹`, 14, "bold");
     if (r.ea.ci95) line(`95 % CI ${formatNumber(kj(r.ea.ci95[0]), 4)} … ${formatNumber(kj(r.ea.ci95[1]), 4)} kJ mol⁻¹`, 9);

@@ -94,7 +94,8 @@ export function objectStore(): ObjectStore | null {
   return holder.__halflightObjectStore;
 }
 
-function sha256Of(bytes: Uint8Array): string {
+/** The SHA-256 of a file's bytes, as hex (what raw files are keyed and checked by). */
+export function sha256Hex(bytes: Uint8Array): string {
   return createHash("sha256").update(bytes).digest("hex");
 }
 
@@ -126,6 +127,6 @@ export async function readRawBytes(row: { lab_id: number; sha256: string; name: 
     }
     if (!bytes) return { ok: false, problem: `The raw file ${row.name} is missing from the object store.` };
   }
-  if (sha256Of(bytes) !== row.sha256) return { ok: false, problem: `The raw file ${row.name} no longer matches its SHA-256: its bytes were replaced.` };
+  if (sha256Hex(bytes) !== row.sha256) return { ok: false, problem: `The raw file ${row.name} no longer matches its SHA-256: its bytes were replaced.` };
   return { ok: true, bytes };
 }

@@ -22,7 +22,7 @@ import {
   t90,
   TemperatureDataError,
   GlobalFitError,
-  GAS_R,
+  arrheniusFormRate,
   includedPoints,
   tQuantile,
   PRIMARY_MODEL,
@@ -256,12 +256,7 @@ function globalPrediction(g: GlobalFitResult, targetC: number): StudyGlobal["pre
   const [ea, kref] = g.parameters;
   const r01 = g.correlation?.[0]?.[1];
   if (!ea || !kref || ea.value === null || kref.value === null || ea.se === null || kref.se === null || r01 === undefined || !Number.isFinite(r01) || g.tref_k === null) return null;
-  const T = celsiusToKelvin(targetC);
-  const u = 1 / T - 1 / g.tref_k;
-  const e = Math.exp((-ea.value / GAS_R) * u);
-  const k = kref.value * e;
-  const dEa = (-k * u) / GAS_R,
-    dKref = e;
+  const { k, dEa, dKref } = arrheniusFormRate(ea.value, kref.value, celsiusToKelvin(targetC), g.tref_k);
   const v = dEa ** 2 * ea.se ** 2 + 2 * dEa * dKref * r01 * ea.se * kref.se + dKref ** 2 * kref.se ** 2;
   const se = Math.sqrt(Math.max(v, 0));
   const tq = tQuantile(0.975, g.dof);
@@ -348,15 +343,6 @@ export async function changeStudy(db: Knex, user: SignedInUser, id: number, chan
 
 /** A study version's results: the two-stage numbers, and for temperature studies all curves fitted together. */
 export type StudyResults = ReturnType<typeof computeStudy> & { global?: StudyGlobal };
-/** A temperature study's results (Arrhenius, Eyring, Q10, prediction, the global fit). */
-export type TemperatureStudyResults = Extract<ReturnType<typeof computeStudy>, { kind: "temperature" }> & { global?: StudyGlobal };
-/** An excess-concentration series' results (k2 and the global fit). */
-export type ExcessStudyResults = Extract<ReturnType<typeof computeStudy>, { kind: "excess" }> & { global?: StudyGlobal };
-
-/** The results narrowed by their kind (the union the service stores), instead of a cast at each use. */
-export function studyResultsOf(results: StudyResults): { kind: "temperature"; r: TemperatureStudyResults } | { kind: "excess"; r: ExcessStudyResults } {
-  return results.kind === "temperature" ? { kind: "temperature", r: results as TemperatureStudyResults } : { kind: "excess", r: results as ExcessStudyResults };
-}
 
 export async function getStudyRecord(db: Knex, labId: number, id: number) {
   const s = await getStudy(db, labId, id);
