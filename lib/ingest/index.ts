@@ -10,7 +10,8 @@ import { AppError } from "@/lib/errors";
 import type { RunMapping, UploadPreview } from "@/lib/schemas/runs";
 import { PARSE_LIMITS } from "@/parsers/limits";
 import { runJob } from "@/lib/jobs/pool";
-import { ParseError, type ParsedExport, type ParsedSeries } from "@/parsers";
+import { ParseError } from "@/parsers";
+import type { PackedExport, PackedSeries } from "@/lib/jobs/work";
 
 // The hash raw files are keyed by, for callers that ingest.
 export { sha256Hex };
@@ -33,7 +34,7 @@ export function checkSize(fileName: string, size: number, maxBytes: number = ING
  * Parses and checks an export; refused input becomes a 422 naming the file and the line. Its size has been checked
  * against the lab's limit (never above the server's) by the caller, before any other work.
  */
-async function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<ParsedExport & { ranking: Array<{ name: string; confidence: number }> }> {
+async function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<PackedExport & { ranking: Array<{ name: string; confidence: number }> }> {
   // Parsing is CPU work: it runs on a worker thread, with the pool's time limit.
   const r = await runJob("parse-export", { bytes, fileName, parser: mapping.parser, timeColumn: mapping.timeColumn });
   if (r.error) throw refuse(fileName, new ParseError(r.error.reason, r.error.line));
@@ -87,10 +88,10 @@ export async function previewUpload(db: Knex, labId: number, bytes: Uint8Array, 
         unit: s.unit,
         points: s.t.length,
         skipped_lines: s.skipped_lines,
-        t: s.t.filter((_, i) => i % stride === 0),
-        y: s.y.filter((_, i) => i % stride === 0),
-        first_t: s.t.slice(0, 8),
-        first_y: s.y.slice(0, 8),
+        t: Array.from(s.t.filter((_, i) => i % stride === 0)),
+        y: Array.from(s.y.filter((_, i) => i % stride === 0)),
+        first_t: Array.from(s.t.subarray(0, 8)),
+        first_y: Array.from(s.y.subarray(0, 8)),
         wavelength_nm: num(s.metadata?.wavelength_nm),
       };
     }),
@@ -112,18 +113,18 @@ interface StoredSeries {
   name: string;
   quantity: string;
   unit: string;
-  series: ParsedSeries;
+  series: PackedSeries;
   processing: Record<string, unknown>;
-  t: number[];
-  y: number[];
+  t: ArrayLike<number>;
+  y: ArrayLike<number>;
 }
 
 /** Applies the mapping: chosen channels, their names, and the blank subtracted at equal times. */
-export function applyMapping(parsed: ParsedExport, mapping: RunMapping, fileName: string): StoredSeries[] {
+export function applyMapping(parsed: PackedExport, mapping: RunMapping, fileName: string): StoredSeries[] {
   const byName = new Map(parsed.series.map((s) => [s.name, s]));
   for (const c of mapping.channels ?? [])
     if (!byName.has(c.source)) throw new AppError({ code: "unprocessable", message: `${fileName}: the mapping names a channel "${c.source}" that the file does not have.` });
-  let blank: ParsedSeries | undefined;
+  let blank: PackedSeries | undefined;
   if (mapping.blank) {
     blank = byName.get(mapping.blank);
     if (!blank) throw new AppError({ code: "unprocessable", message: `${fileName}: the blank channel "${mapping.blank}" is not in the file.` });

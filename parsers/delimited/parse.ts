@@ -6,7 +6,8 @@ import { readMetadata } from "../metadata";
 import { PARSE_LIMITS } from "../limits";
 import { decodeText, readNumber, splitLines } from "../text";
 import { ParseError, type ParsedExport, type ParsedSeries, type ParseOptions } from "../types";
-import { classifyTime, timeReader } from "./time";
+import { classifyTime, timeReader, type TimeReader } from "./time";
+import { readPlainTable } from "./fast";
 
 /** Cells instruments write instead of a reading beyond their range (common practice; no one standard spells them). */
 const OVER_RANGE = /^(over(range|flow)?|over-range|ovr(ng)?|sat(urated)?|high|hi|range|o\.?r\.?|>.*|\*+|\+?inf(inity)?)$/i;
@@ -75,7 +76,7 @@ export function headerUnit(header: string): string | null {
   return m ? m[1]!.trim() : null;
 }
 
-interface ChannelKind {
+export interface ChannelKind {
   quantity: Quantity;
   unit: string;
   percentT: boolean;
@@ -101,28 +102,32 @@ function unquote(c: string): string {
   return t.length >= 2 && t.startsWith('"') && t.endsWith('"') ? t.slice(1, -1).replace(/""/g, '"').trim() : t;
 }
 
-export interface LocatedTable {
-  warnings: string[];
-  decimalComma: boolean;
-  /** 0-based index of the header line, or −1. */
-  headerIdx: number;
-  headerCells: string[];
-  /** 0-based index of the first data line. */
-  first: number;
+export interface LocatedTable extends FoundTable {
   /** Table rows from `first` on: row r is file line first + 1 + r, tokenised on demand (no array of a million rows). */
   rowCount: number;
   row(r: number): string[];
+}
+
+/** The table found at the top of an export: dialect, metadata block, header row and its first data row (0-based). */
+export interface FoundTable {
+  warnings: string[];
+  delimiter: Delimiter;
+  decimalComma: boolean;
+  headerIdx: number;
+  headerCells: string[];
+  first: number;
   meta: ReturnType<typeof readMetadata>;
 }
 
-/** Finds the table in a delimited export: dialect, metadata block, header row, data rows (not yet typed). */
-export function locateTable(bytes: Uint8Array): LocatedTable {
-  const decoded = decodeText(bytes);
+/**
+ * Finds the table in the lines of an export. `sample` is what the dialect is sniffed from (the first and last 200
+ * lines of a long file); `lines` must reach at least the line after the first data row.
+ */
+export function findTable(lines: readonly string[], sample: readonly string[], decoded: { encoding: string; text: string; warnings: string[] }): FoundTable {
   const warnings = [...decoded.warnings];
-  const lines = splitLines(decoded.text);
   if (lines.every((l) => !l.trim())) throw new ParseError("The file is empty (it holds only blank lines).");
 
-  const dialect = sniffDialect(lines);
+  const dialect = sniffDialect(sample);
   if (!dialect) {
     const single = lines.findIndex((l) => classifyTime(l.trim()) !== null);
     if (single >= 0) throw new ParseError("the file has only one column; a time column and at least one channel are needed", single + 1);
@@ -191,6 +196,21 @@ export function locateTable(bytes: Uint8Array): LocatedTable {
     headerCells = Array.from({ length: dataWidth }, (_, i) => (i === 0 ? "Time" : `Channel ${i}`));
     warnings.push(`No header row was found above the table (line ${first + 1}); columns are named Time, Channel 1, ….`);
   }
+  return { warnings, delimiter, decimalComma, headerIdx, headerCells, first, meta };
+}
+
+/** The sample of lines the dialect is sniffed from: all of a short file, the first and last 200 lines of a long one. */
+export function sniffSample(lines: readonly string[]): readonly string[] {
+  return lines.length > 400 ? [...lines.slice(0, 200), ...lines.slice(-200)] : lines;
+}
+
+/** Finds the table in a delimited export: dialect, metadata block, header row, data rows (not yet typed). */
+export function locateTable(bytes: Uint8Array): LocatedTable {
+  const decoded = decodeText(bytes);
+  const lines = splitLines(decoded.text);
+  const found = findTable(lines, sniffSample(lines), decoded);
+  const { warnings, first, delimiter } = found;
+  const cellsOf = (i: number) => splitCells(lines[i]!, delimiter);
 
   // Tokenise the table with papaparse (quoted fields, its fast path when there are none).
   let last = lines.length - 1;
@@ -198,12 +218,22 @@ export function locateTable(bytes: Uint8Array): LocatedTable {
   const trailing = lines.slice(last + 1).map((l, i) => [l, last + 2 + i] as const).filter(([l]) => l.trim());
   if (trailing.length) warnings.push(`${trailing.length} line(s) after the table were not read (from line ${trailing[0]![1]}).`);
   const { rowCount, row } = tokenize(lines, first, last, delimiter);
-
-  return { warnings, decimalComma, headerIdx, headerCells, first, rowCount, row, meta };
+  return { ...found, warnings, rowCount, row };
 }
 
-export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}): ParsedExport {
-  const { warnings, decimalComma, headerIdx, headerCells, first, rowCount, row, meta } = locateTable(bytes);
+/** How the table's columns are read: time column and its reader, the channels and what each holds. */
+export interface TablePlan {
+  timeCol: number;
+  reader: TimeReader;
+  unitFactor: number;
+  channels: Array<{ h: string; i: number }>;
+  kinds: ChannelKind[];
+  warnings: string[];
+}
+
+function planColumns(found: FoundTable, firstRow: string[], options: ParseOptions): TablePlan {
+  const { headerCells, headerIdx, first, meta, decimalComma } = found;
+  const warnings = [...found.warnings];
   // Columns: time (by header name, else the first), the rest channels.
   let timeCol = headerCells.findIndex((h) => TIME_HEADER.test(h.trim()));
   if (timeCol < 0) timeCol = 0;
@@ -217,7 +247,7 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
   if (tUnit && unitFactor === null && !/^(hh?:mm(:ss)?|mm:ss|clock|iso.*|utc|local)$/i.test(tUnit))
     throw new ParseError(`the time column's unit "${tUnit}" is not a unit of time`, (headerIdx >= 0 ? headerIdx : first) + 1);
   if (unitFactor === null && meta.timeUnit) unitFactor = meta.timeUnit.factor;
-  const firstTime = row(0)[timeCol] ?? "";
+  const firstTime = firstRow[timeCol] ?? "";
   const reader = timeReader(unquote(firstTime), {
     unitFactor: unitFactor ?? 1,
     decimalComma,
@@ -233,7 +263,21 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
   const kinds = channels.map(({ h }) => channelKind(h, defaultKind));
   if (kinds.some((k) => !k.fromHeader) && !defaultKind)
     warnings.push(`No unit was given for ${channels.filter((_, q) => !kinds[q]!.fromHeader).map((c) => `"${c.h}"`).join(", ")}: the readings were taken as absorbance.`);
+  return { timeCol, reader, unitFactor: unitFactor ?? 1, channels, kinds, warnings };
+}
 
+/** The typed table: each channel's times and readings, and the lines whose cell was skipped (with why). */
+export interface TypedRows {
+  ts: number[][];
+  ys: number[][];
+  skipped: number[][];
+  why: Array<{ empty: number[]; over: Array<[number, string]>; nonPositiveT: number[]; text: Array<[number, string]> }>;
+}
+
+/** The general path: every row tokenised, every cell read and checked, errors naming their line. */
+function readRows(table: LocatedTable, plan: TablePlan): TypedRows {
+  const { headerCells, headerIdx, first, rowCount, row, decimalComma } = table;
+  const { channels, kinds, reader, timeCol } = plan;
   const t: number[] = [];
   const ys = channels.map(() => [] as number[]);
   const ts = channels.map(() => [] as number[]);
@@ -279,7 +323,34 @@ export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}
     });
   }
   if (t.length === 0) throw new ParseError("a header row but no data rows below it", (headerIdx >= 0 ? headerIdx : first) + 1);
+  return { ts, ys, skipped, why };
+}
 
+/**
+ * Reads a delimited export. Plain numeric tables go through the byte-level reader (fast.ts), which reads the bytes
+ * straight into numbers and hands anything unusual back to the general path here; `{ fast: false }` forces the general
+ * path (the tests compare the two on every fixture).
+ */
+export function parseDelimitedText(bytes: Uint8Array, options: ParseOptions = {}, how: { fast?: boolean } = {}): ParsedExport {
+  if (how.fast !== false) {
+    const quick = readPlain(bytes, options);
+    if (quick) return assemble(quick.found, quick.plan, quick.rows);
+  }
+  const table = locateTable(bytes);
+  const plan = planColumns(table, table.row(0), options);
+  return assemble(table, plan, readRows(table, plan));
+}
+
+/** The byte-level reader with this parser's column planning; null where the general path must read the file. */
+export function readPlain(bytes: Uint8Array, options: ParseOptions = {}) {
+  return readPlainTable(bytes, (found, firstRow) => planColumns(found, firstRow, options));
+}
+
+function assemble(found: FoundTable, plan: TablePlan, rows: TypedRows): ParsedExport {
+  const { headerIdx, headerCells, first, meta } = found;
+  const { channels, kinds, timeCol } = plan;
+  const warnings = [...plan.warnings];
+  const { ts, ys, skipped, why } = rows;
   const series: ParsedSeries[] = channels.map(({ h }, q) => {
     if (ys[q]!.length === 0)
       throw new ParseError(`the channel "${h}" has no numbers at all`, (headerIdx >= 0 ? headerIdx : first) + 1);

@@ -56,6 +56,10 @@ export function benchIngest(): void {
     const pandas = run(DEBIAN_PYTHON, ["tests/bench/pandas_read.py", c.file]);
     const cliDb = path.join(dir, `cli-${c.channels}.sqlite`);
     const cli = run("npm", ["run", "--silent", "cli", "--", "ingest", c.file, "--json"], { ...process.env, DATABASE_FILE: cliDb });
+    // Whole process, median of three each: the command as launched (node lib/cli/launch.mjs, without npm's own start)
+    // beside the pandas + SQLite peer.
+    const wholeOurs = [0, 1, 2].map((k) => run(process.execPath, ["lib/cli/launch.mjs", "ingest", c.file, "--json"], { ...process.env, DATABASE_FILE: path.join(dir, `whole-${c.channels}-${k}.sqlite`) }));
+    const wholePeer = [0, 1, 2].map((k) => run(DEBIAN_PYTHON, ["tests/bench/pandas_sqlite_ingest.py", c.file, path.join(dir, `peer-${c.channels}-${k}.sqlite`)]));
     const oursS = ours.ok ? ours.json.seconds_ingest! : NaN;
     const points = c.rows * c.channels;
     const dbBytes = fs.existsSync(path.join(dir, `ours-${c.channels}.sqlite`)) ? fs.statSync(path.join(dir, `ours-${c.channels}.sqlite`)).size : NaN;
@@ -65,7 +69,13 @@ export function benchIngest(): void {
     if (floor.ok) console.log(`    floor (byte scan + BLOB): ${floor.json.seconds!.toFixed(2)} s   ratio ours/floor ${(oursS / floor.json.seconds!).toFixed(2)}`);
     if (pandas.ok) console.log(`    pandas.read_csv alone:    ${pandas.json.seconds!.toFixed(2)} s   ratio ours/pandas ${(oursS / pandas.json.seconds!).toFixed(2)}  (pandas peak RSS ${pandas.json.max_rss_mb!.toFixed(0)} MB)`);
     else console.log(`    pandas peer unavailable: ${pandas.err} (install Debian's python3-pandas)`);
-    console.log(`    cli ingest (whole command, wall clock): ${cli.ok ? cli.wall.toFixed(2) + " s" : "FAILED " + cli.err}`);
+    console.log(`    npm run cli -- ingest (wall clock, npm's own start included): ${cli.ok ? cli.wall.toFixed(2) + " s" : "FAILED " + cli.err}`);
+    const med = (xs: number[]) => [...xs].sort((a, b) => a - b)[1]!;
+    if (wholeOurs.every((r) => r.ok) && wholePeer.every((r) => r.ok)) {
+      const o = med(wholeOurs.map((r) => r.wall)),
+        p = med(wholePeer.map((r) => r.wall));
+      console.log(`    whole process, median of 3: node lib/cli/launch.mjs ingest ${o.toFixed(2)} s; python3 pandas.read_csv + SQLite BLOBs ${p.toFixed(2)} s; ratio ${(o / p).toFixed(2)} (target 1.0)`);
+    } else console.log(`    whole-process comparison unavailable: ${[...wholeOurs, ...wholePeer].find((r) => !r.ok)?.err}`);
     const rawPerPoint = fs.statSync(c.file).size / points;
     console.log(`    stored per point: ${(dbBytes / points - rawPerPoint).toFixed(1)} bytes of series (t and y as float64) + ${rawPerPoint.toFixed(1)} of the kept raw file (database file ${(dbBytes / 1e6).toFixed(1)} MB)`);
   }
