@@ -2,6 +2,11 @@
 // them; so does the in-process path the CLI uses). Inputs and outputs cross threads by structured clone.
 import { fitGlobal, fitSeriesWithOptions, type GlobalFitResult, type GlobalForm, type GlobalRun, type SeriesFitOutcome, type SeriesFitOptions } from "@/lib/kinetics";
 import { runValidation, type ValidationReport } from "@/lib/validation";
+import type { ValidationRecord } from "@/lib/validation/records";
+import { drawFitReport } from "@/lib/reports/fit-pdf";
+import { drawStudyReport } from "@/lib/reports/study-pdf";
+import type { FitReportData, StudyReportData } from "@/lib/reports/records";
+import { drawValidationReport } from "@/lib/reports/validation-pdf";
 import { parseExport, ParseError, rankParsers, type ParsedExport, type ParsedSeries } from "@/parsers";
 
 /** A parsed series whose times and readings cross threads as Float64Arrays (moved, not copied). */
@@ -19,11 +24,17 @@ export interface JobTypes {
     input: { bytes: Uint8Array; fileName: string; parser?: string; timeColumn?: string };
     output: { parsed: PackedExport | null; error: { message: string; reason: string; line?: number } | null; ranking: Array<{ name: string; confidence: number }> };
   };
+  "fit-report": { input: FitReportData; output: { name: string; bytes: Uint8Array } };
+  "study-report": { input: StudyReportData; output: { name: string; bytes: Uint8Array } };
+  "validation-report": { input: { rec: ValidationRecord; labName: string }; output: { name: string; bytes: Uint8Array } };
 }
 export type JobKind = keyof JobTypes;
 
 
-export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"], progress: Progress) => JobTypes[K]["output"] } = {
+export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"], progress: Progress) => JobTypes[K]["output"] | Promise<JobTypes[K]["output"]> } = {
+  "fit-report": (data) => drawFitReport(data),
+  "study-report": (data) => drawStudyReport(data),
+  "validation-report": (data) => drawValidationReport(data),
   "fit-series": ({ t, y, options }) => fitSeriesWithOptions(t, y, options),
   "global-fit": ({ model, runs, form }) => fitGlobal(model, runs, form),
   "validation-run": ({ referenceDir }, progress) => runValidation({ referenceDir, onProgress: (done, total, id) => progress(done, total, id) }),

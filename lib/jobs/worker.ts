@@ -2,9 +2,9 @@
 import { parentPort } from "node:worker_threads";
 import { transferables, WORK, type JobKind } from "./work";
 
-parentPort!.on("message", (m: { id: number; kind: JobKind; input: never }) => {
+parentPort!.on("message", async (m: { id: number; kind: JobKind; input: never }) => {
   try {
-    const output = WORK[m.kind](m.input, (done, total, note) => parentPort!.postMessage({ id: m.id, progress: { done, total, note } }));
+    const output = await WORK[m.kind](m.input, (done, total, note) => parentPort!.postMessage({ id: m.id, progress: { done, total, note } }));
     parentPort!.postMessage({ id: m.id, ok: true, output }, transferables(output));
   } catch (e) {
     const err = e as Error & { code?: string; line?: number; reason?: string };

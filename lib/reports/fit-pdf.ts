@@ -1,35 +1,20 @@
 // The PDF report of one fit record version (pdfkit): lab, run and file identity, the plot, parameters and diagnostics,
 // exclusions with reasons, versions, comments, signature blocks and the record's audit events, in the app's own
 // typefaces (lib/reports/pdf-fonts.ts) so units and symbols print as on screen.
-import PDFDocument from "pdfkit";
-import type { Knex } from "knex";
-import { auditRowsOfObject } from "@/db/queries/audit";
-import { verifyFitVersion } from "@/lib/integrity";
-import { getFitRecord, recordParameterUnit, recordUnits, versionsOfRecord } from "@/lib/fits";
+// Drawn on a worker thread from plain data (lib/reports/records.ts reads it): no database code is imported here, and
+// pdfkit loads on the first report, so the worker starts light.
+import type { FitReportData } from "./records";
+import { fitUnits, parameterUnit } from "@/lib/kinetics";
 import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
-import { listComments, reviewStatus } from "@/lib/reviews";
-import { getRunDetail, readSeries } from "@/lib/runs";
 import { drawSceneOnPdf, fitPlotScene, plotAxisLabel, type PdfSurface } from "./fit-plot";
 import { printAudit, printComments, printSignatures } from "./pdf-trail";
-import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
+import { faceFor, openPdfDocument, printable, type PdfFont } from "./pdf-fonts";
 
-export { printable } from "./pdf-fonts";
 
-export async function fitReportPdf(db: Knex, labId: number, labName: string, id: number): Promise<{ name: string; bytes: Buffer }> {
-  const rec = await getFitRecord(db, labId, id);
-  const run = await getRunDetail(db, labId, rec.run.id);
-  const versions = await versionsOfRecord(db, labId, rec.record_id!);
-  const review = await reviewStatus(db, labId, id);
-  const comments = await listComments(db, labId, id);
-  const audit = await auditRowsOfObject(db, labId, "fit", String(rec.record_id));
-  // The stored points and the stored results: nothing is fitted again to print a record.
-  const { t, y } = await readSeries(db, labId, rec.run.id, rec.series.id);
+export async function drawFitReport(data: FitReportData): Promise<{ name: string; bytes: Uint8Array }> {
+  const { labName, rec, run, versions, review, comments, audit, t, y, integrity } = data;
 
-  const doc = new PDFDocument({ size: "A4", margin: 48, info: { Title: `${rec.title} v${rec.version}`, Author: "Halflight", Subject: `content hash ${rec.content_hash}` } });
-  const chunks: Buffer[] = [];
-  doc.on("data", (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  registerPdfFonts(doc);
+  const { doc, bytes: done } = await openPdfDocument({ margin: 48, info: { Title: `${rec.title} v${rec.version}`, Author: "Halflight", Subject: `content hash ${rec.content_hash}` } });
   const font = (kind: PdfFont) => doc.font(kind);
   const line = (text: string, size = 10, kind: PdfFont = "sans") => font(faceFor(kind, text)).fontSize(size).text(printable(text));
   const heading = (text: string) => {
@@ -46,11 +31,11 @@ export async function fitReportPdf(db: Knex, labId: number, labName: string, id:
   line(`Raw file: ${run.raw_file.name} · SHA-256 ${run.raw_file.sha256}`, 8, "mono");
   line(`Data SHA-256 ${rec.data_sha256}`, 8, "mono");
   line(`Record content hash ${rec.content_hash} · ${rec.engine_version}`, 8, "mono");
-  const integrity = await verifyFitVersion(db, labId, id);
   line(integrity.ok ? "Integrity verified: content hash, data and raw file SHA-256 recomputed from what is stored." : `TAMPER WARNING: ${integrity.problems.join(" ")}`, 9, integrity.ok ? "sans" : "bold");
 
   heading(`Rate constant (${rec.primary.model})`);
-  const units = recordUnits(rec.results, rec.options);
+  const units = fitUnits(rec.results.quantity, rec.options.conversion);
+  const recordParameterUnit = (model: string, param: string, u: typeof units) => parameterUnit(model, param, u) ?? "";
   line(`k = ${formatWithUncertainty(rec.primary.k, rec.primary.k_se)} ${recordParameterUnit(rec.primary.model, "k", units)}`, 14, "bold");
 
   // The plot: the same scene as the record page (data, the fitted curve, residuals below), drawn as vectors.

@@ -4,7 +4,7 @@
 // prints as "?" rather than as a wrong glyph, and mono is used only for plain ASCII (hashes, codes).
 import fs from "node:fs";
 import path from "node:path";
-import { openSync } from "fontkit";
+import type { openSync } from "fontkit";
 
 const ROOT = path.join(process.cwd(), "node_modules");
 export const PDF_FONTS = {
@@ -16,7 +16,7 @@ export type PdfFont = keyof typeof PDF_FONTS;
 
 let coverage: ReturnType<typeof openSync> | null = null;
 function sansCoverage() {
-  coverage ??= openSync(PDF_FONTS.sans);
+  if (!coverage) throw new Error("printable() before openPdfDocument(): the report fonts are not loaded.");
   return coverage;
 }
 
@@ -28,8 +28,23 @@ export function printable(s: string): string {
   return out;
 }
 
+/**
+ * A new A4 pdfkit document with the three faces registered, and its bytes once ended. pdfkit and fontkit load on the
+ * first report (the job worker starts without them).
+ */
+export async function openPdfDocument(options: { margin: number; info: Record<string, string> }) {
+  const [{ default: PDFDocument }, fontkit] = await Promise.all([import("pdfkit"), import("fontkit")]);
+  coverage ??= fontkit.openSync(PDF_FONTS.sans);
+  const doc = new PDFDocument({ size: "A4", ...options });
+  const chunks: Buffer[] = [];
+  doc.on("data", (c: Buffer) => chunks.push(c));
+  const bytes = new Promise<Uint8Array>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
+  registerPdfFonts(doc);
+  return { doc, bytes };
+}
+
 /** Registers the three faces on a pdfkit document; throws a clear error when a font file is missing. */
-export function registerPdfFonts(doc: { registerFont(name: string, src: string): unknown }): void {
+function registerPdfFonts(doc: { registerFont(name: string, src: string): unknown }): void {
   for (const [name, file] of Object.entries(PDF_FONTS)) {
     if (!fs.existsSync(file)) throw new Error(`The report font ${file} is missing: run npm install (source-sans and @ibm/plex-mono are dependencies).`);
     doc.registerFont(name, file);

@@ -1,34 +1,24 @@
 // The PDF report of one study version: its members (which fit version, which temperature and why), the two-stage
 // Arrhenius and Eyring results with their plots (±1 SE bars, the line and its 95 % band), the global fit beside them,
 // the stored prediction with its cautions, integrity, comments, signatures and the record's audit events in words.
-import PDFDocument from "pdfkit";
-import type { Knex } from "knex";
-import { auditRowsOfObject } from "@/db/queries/audit";
+// Drawn on a worker thread from plain data (lib/reports/records.ts reads it): no database code is imported here.
+import type { StudyReportData } from "./records";
 import { formatNumber, formatSeconds, formatWithUncertainty } from "@/lib/format/number";
-import { verifyStudyVersion } from "@/lib/integrity";
-import { listComments, reviewStatus } from "@/lib/reviews";
-import { getStudyRecord, PREDICTION_CAUTION, type StudyGlobal } from "@/lib/studies";
+import type { StudyGlobal } from "@/lib/studies";
+import { PREDICTION_CAUTION } from "@/lib/studies/caution";
 import { drawSceneOnPdf, type PdfSurface } from "./fit-plot";
 import { printAudit, printComments, printSignatures } from "./pdf-trail";
-import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
+import { faceFor, openPdfDocument, printable, type PdfFont } from "./pdf-fonts";
 import { ratePlotScene, residualPanelsScene } from "./rate-plot";
 
 const kj = (v: number | null | undefined) => (v === null || v === undefined ? null : v / 1000);
 const hours = (s: number) => (s >= 86400 * 2 ? `${formatNumber(s / 86400, 3)} d` : formatSeconds(s));
 
 
-export async function studyReportPdf(db: Knex, labId: number, labName: string, id: number): Promise<{ name: string; bytes: Buffer }> {
-  const st = await getStudyRecord(db, labId, id);
-  const review = await reviewStatus(db, labId, id, "study");
-  const comments = await listComments(db, labId, id, "study");
-  const audit = await auditRowsOfObject(db, labId, "study", String(st.record_id));
-  const integrity = await verifyStudyVersion(db, labId, id);
+export async function drawStudyReport(data: StudyReportData): Promise<{ name: string; bytes: Uint8Array }> {
+  const { labName, st, review, comments, audit, integrity } = data;
 
-  const doc = new PDFDocument({ size: "A4", margin: 48, info: { Title: `${st.name} v${st.version}`, Author: "Halflight", Subject: `content hash ${st.content_hash}` } });
-  const chunks: Buffer[] = [];
-  doc.on("data", (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  registerPdfFonts(doc);
+  const { doc, bytes: done } = await openPdfDocument({ margin: 48, info: { Title: `${st.name} v${st.version}`, Author: "Halflight", Subject: `content hash ${st.content_hash}` } });
   const line = (text: string, size = 10, kind: PdfFont = "sans") => doc.font(faceFor(kind, text)).fontSize(size).text(printable(text));
   const heading = (text: string) => {
     doc.moveDown(0.6);

@@ -1,15 +1,10 @@
 // The validation report as PDF: installation facts, reference-file hashes, every case, the signature.
-import PDFDocument from "pdfkit";
 import type { ValidationRecord } from "@/lib/validation/records";
-import { faceFor, printable, registerPdfFonts, type PdfFont } from "./pdf-fonts";
+import { faceFor, openPdfDocument, printable, type PdfFont } from "./pdf-fonts";
 
-export async function validationReportPdf(rec: ValidationRecord, labName: string): Promise<{ name: string; bytes: Buffer }> {
+export async function drawValidationReport({ rec, labName }: { rec: ValidationRecord; labName: string }): Promise<{ name: string; bytes: Uint8Array }> {
   const r = rec.report;
-  const doc = new PDFDocument({ size: "A4", margin: 40, info: { Title: `Halflight validation run ${rec.id}`, Subject: `content hash ${rec.content_hash}` } });
-  const chunks: Buffer[] = [];
-  doc.on("data", (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  registerPdfFonts(doc);
+  const { doc, bytes: done } = await openPdfDocument({ margin: 40, info: { Title: `Halflight validation run ${rec.id}`, Subject: `content hash ${rec.content_hash}` } });
   const t = (s: string, size = 9, font: PdfFont = "sans") => doc.font(faceFor(font, s)).fontSize(size).text(printable(s));
   t(`Halflight validation run ${rec.id}: ${r.all_passed ? "ALL CASES PASSED" : `${r.failed} CASE(S) FAILED`}`, 15, "bold");
   t(`${labName} · run ${r.started_at.replace("T", " ").slice(0, 19)} UTC by ${rec.run_by} · ${r.passed} passed, ${r.failed} failed in ${r.seconds.toFixed(1)} s`);

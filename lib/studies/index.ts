@@ -36,8 +36,8 @@ import { decimateIndices } from "@/lib/plot/decimate";
 import { readSeries } from "@/lib/runs";
 import type { ChangeStudy, CreateStudy, StudyMember } from "@/lib/schemas/studies";
 
-export const PREDICTION_CAUTION =
-  "Predictions are estimates for qualified review, not release or shelf-life decisions; local regulations and the lab's SOPs govern shelf-life claims.";
+export { PREDICTION_CAUTION } from "./caution";
+import { PREDICTION_CAUTION } from "./caution";
 
 export interface ResolvedMember extends StudyMember {
   fit_title: string;

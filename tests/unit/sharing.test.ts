@@ -13,7 +13,7 @@ import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { changeLabSettings } from "@/lib/admin/settings";
 import { hashPassword } from "@/lib/auth/password";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
-import { fitReportPdf } from "@/lib/reports/fit-pdf";
+import { fitReportPdf } from "@/lib/reports/records";
 import { addComment, decideFit, submitFit } from "@/lib/reviews";
 import { openShareLink, openShareLinkOutside } from "@/lib/sharing";
 import { freshDb } from "./../helpers/db";

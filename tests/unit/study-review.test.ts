@@ -13,7 +13,7 @@ import { setDb } from "@/db";
 import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
 import { signInWithPassword, type SignedInUser } from "@/lib/auth/sign-in";
 import { reviewQueue, reviewStatus, waitingForMe } from "@/lib/reviews";
-import { studyReportPdf } from "@/lib/reports/study-pdf";
+import { studyReportPdf } from "@/lib/reports/records";
 import { changeStudy, createStudy } from "@/lib/studies";
 import { changeLabSettings } from "@/lib/admin/settings";
 import { openShareLink, openShareLinkOutside, revokeLink } from "@/lib/sharing";

@@ -13,7 +13,7 @@ import type { SignedInUser } from "@/lib/auth/sign-in";
 import { fitParametersCsv, saveFit } from "@/lib/fits";
 import { ingestExport } from "@/lib/ingest";
 import { fitUnits, MODELS, parameterUnit } from "@/lib/kinetics/models";
-import { fitReportPdf } from "@/lib/reports/fit-pdf";
+import { fitReportPdf } from "@/lib/reports/records";
 import { freshDb, signInAs } from "../../helpers/db";
 
 const EXPECTED: Record<string, Record<string, [string, string]>> = {

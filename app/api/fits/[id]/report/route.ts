@@ -1,6 +1,6 @@
 import { attachment } from "@/lib/http/download";
 import { withUser } from "@/lib/http/with-user";
-import { fitReportPdf } from "@/lib/reports/fit-pdf";
+import { fitReportPdf } from "@/lib/reports/records";
 import { idParam } from "@/lib/schemas/common";
 
 // The PDF report of one record version.

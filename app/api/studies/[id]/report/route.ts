@@ -1,6 +1,6 @@
 import { attachment } from "@/lib/http/download";
 import { withUser } from "@/lib/http/with-user";
-import { studyReportPdf } from "@/lib/reports/study-pdf";
+import { studyReportPdf } from "@/lib/reports/records";
 import { idParam } from "@/lib/schemas/common";
 
 // The PDF report of one study version.

@@ -1,6 +1,6 @@
 import { attachment } from "@/lib/http/download";
 import { withUser } from "@/lib/http/with-user";
-import { validationReportPdf } from "@/lib/reports/validation-pdf";
+import { validationReportPdf } from "@/lib/reports/records";
 import { idParam } from "@/lib/schemas/common";
 import { getValidationRecord } from "@/lib/validation/records";
 
