@@ -1,5 +1,5 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global`, `-- series` or `-- cli` runs one part.
+// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global`, `-- series`, `-- cli` or `-- load` runs one part (load needs `npm run build` first).
 import { benchAudit } from "./audit";
 import { benchCli } from "./cli";
 import { benchEngine } from "./engine";
@@ -7,6 +7,7 @@ import { benchFormula } from "./formula";
 import { benchGlobal } from "./global";
 import { benchIngest } from "./ingest";
 import { benchLimits } from "./limits";
+import { benchLoad } from "./load";
 import { benchSeries } from "./series";
 
 const only = process.argv[2];
@@ -20,6 +21,7 @@ if (!only || only === "cli") benchCli();
   if (!only || only === "audit") await benchAudit();
   if (!only || only === "limits") await benchLimits();
   if (!only || only === "series") await benchSeries();
+  if (!only || only === "load") await benchLoad();
 })().catch((e: unknown) => {
   console.error(e);
   process.exitCode = 1;
