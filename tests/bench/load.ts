@@ -27,7 +27,7 @@ function freePort(): Promise<number> {
 }
 
 /** next-auth's credentials sign-in over HTTP; returns the Cookie header of the session. */
-async function signIn(base: string, email: string, password: string): Promise<string> {
+export async function signIn(base: string, email: string, password: string): Promise<string> {
   const jar = new Map<string, string>();
   const keep = (r: Response) => {
     for (const c of r.headers.getSetCookie()) {
@@ -70,46 +70,70 @@ async function probe(base: string, cookie: string, seconds: number): Promise<num
   return out;
 }
 
-export async function benchLoad(): Promise<void> {
-  console.log(`\nServer under load over HTTP (production build, SQLite): /api/me while a ${N.toLocaleString("en")}-point series is read and a fit of it saved`);
-  if (!fs.existsSync(".next/BUILD_ID") || !fs.existsSync("dist/serve.mjs")) {
-    console.log("  not measured: no production build here (run npm run build first)");
-    return;
-  }
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-load-bench-"));
-  const dbFile = path.join(dir, "load.sqlite");
+/** A production server on a fresh database with the demo lab and one stored run per size (a smooth first-order decay). */
+export async function benchServer(sizes: number[]): Promise<{ base: string; series: Array<{ runId: number; seriesId: number; n: number }>; stop: () => Promise<void> } | null> {
+  if (!fs.existsSync(".next/BUILD_ID") || !fs.existsSync("dist/serve.mjs")) return null;
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-server-bench-"));
+  const dbFile = path.join(dir, "bench.sqlite");
   const db = openDb(dbFile);
   await migrateToLatest(db);
   await seedDemoWhenEmpty(db);
   const labId = (await db("labs").first("id"))!.id as number;
-  const t = Float64Array.from({ length: N }, (_, i) => i * 0.1);
-  const y = Float64Array.from({ length: N }, (_, i) => 0.05 + 0.9 * Math.exp(-i / 300_000) + 2e-3 * Math.sin(i * 1.7));
-  const at = new Date().toISOString();
-  const raw = await insertRawFile(db, { lab_id: labId, sha256: "1".repeat(64), name: "load.csv", size: 1, bytes: Buffer.from("x"), stored_in: "database", uploaded_by: null, uploaded_at: at });
-  const runId = await insertRun(db, { lab_id: labId, raw_file_id: raw, name: "load 1M", parser: "delimited", study: null, wavelength_nm: 590, path_length_cm: 1, temperature_c: 25, cell: null, operator: null, sample: null, method: null, method_record_id: null, dilution_factor: null, metadata: "{}", warnings: "[]", created_by: null, created_at: at });
-  const seriesId = await insertSeries(db, { lab_id: labId, run_id: runId, position: 0, name: "A", source_column: "A", quantity: "absorbance", unit: "AU", point_count: N, t_f64: packF64(t), y_f64: packF64(y), t_min: 0, t_max: t[N - 1]!, skipped_lines: "[]", processing: "{}" });
+  const series: Array<{ runId: number; seriesId: number; n: number }> = [];
+  for (const [k, n] of sizes.entries()) {
+    const t = Float64Array.from({ length: n }, (_, i) => (i * 100_000) / n);
+    const y = Float64Array.from({ length: n }, (_, i) => 0.05 + 0.9 * Math.exp(-t[i]! / 30_000) + 2e-3 * Math.sin(i * 1.7));
+    const at = new Date().toISOString();
+    const raw = await insertRawFile(db, { lab_id: labId, sha256: String(k + 1).repeat(64), name: `bench-${n}.csv`, size: 1, bytes: Buffer.from("x"), stored_in: "database", uploaded_by: null, uploaded_at: at });
+    const runId = await insertRun(db, { lab_id: labId, raw_file_id: raw, name: `bench ${n.toLocaleString("en")} points`, parser: "delimited", study: null, wavelength_nm: 590, path_length_cm: 1, temperature_c: 25, cell: null, operator: null, sample: null, method: null, method_record_id: null, dilution_factor: null, metadata: "{}", warnings: "[]", created_by: null, created_at: at });
+    const seriesId = await insertSeries(db, { lab_id: labId, run_id: runId, position: 0, name: "A", source_column: "A", quantity: "absorbance", unit: "AU", point_count: n, t_f64: packF64(t), y_f64: packF64(y), t_min: 0, t_max: t[n - 1]!, skipped_lines: "[]", processing: "{}" });
+    series.push({ runId, seriesId, n });
+  }
   await db.destroy();
 
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   const server = spawn(process.execPath, ["dist/serve.mjs"], {
     stdio: ["ignore", "ignore", "pipe"],
-    env: { ...process.env, PORT: String(port), DATABASE_FILE: dbFile, NEXTAUTH_URL: base, NEXTAUTH_SECRET: randomBytes(24).toString("base64url"), AUDIT_KEY: randomBytes(24).toString("base64url"), MAIL_TRANSPORT: "log", NODE_ENV: "production" },
+    env: { ...process.env, PORT: String(port), DATABASE_FILE: dbFile, NEXTAUTH_URL: base, NEXTAUTH_SECRET: randomBytes(24).toString("base64url"), AUDIT_KEY: randomBytes(24).toString("base64url"), MAIL_TRANSPORT: "log", NODE_ENV: "production", RATE_LIMITS: "signInByAddress=1000" },
   });
   let err = "";
   server.stderr!.on("data", (b: Buffer) => (err += b.toString()));
-  try {
-    const until = Date.now() + 60_000;
-    for (;;) {
-      if (server.exitCode !== null) throw new Error(`the server exited: ${err.slice(-400)}`);
-      try {
-        if ((await fetch(`${base}/api/health`)).status < 500) break;
-      } catch {
-        /* not up yet */
-      }
-      if (Date.now() > until) throw new Error("the server did not start within 60 s");
-      await new Promise((r) => setTimeout(r, 200));
+  const stop = async () => {
+    server.kill("SIGTERM");
+    if (server.exitCode === null) await new Promise((r) => server.once("exit", r));
+    fs.rmSync(dir, { recursive: true, force: true });
+  };
+  const until = Date.now() + 60_000;
+  for (;;) {
+    if (server.exitCode !== null) {
+      await stop();
+      throw new Error(`the server exited: ${err.slice(-400)}`);
     }
+    try {
+      if ((await fetch(`${base}/api/health`)).status < 500) break;
+    } catch {
+      /* not up yet */
+    }
+    if (Date.now() > until) {
+      await stop();
+      throw new Error("the server did not start within 60 s");
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return { base, series, stop };
+}
+
+export async function benchLoad(): Promise<void> {
+  console.log(`\nServer under load over HTTP (production build, SQLite): /api/me while a ${N.toLocaleString("en")}-point series is read and a fit of it saved`);
+  const srv = await benchServer([N]);
+  if (!srv) {
+    console.log("  not measured: no production build here (run npm run build first)");
+    return;
+  }
+  const { base } = srv;
+  const { runId, seriesId } = srv.series[0]!;
+  try {
     const analyst = DEMO_USERS.find((u) => u.role === "analyst")!;
     const cookie = await signIn(base, analyst.email, analyst.password);
 
@@ -159,8 +183,6 @@ export async function benchLoad(): Promise<void> {
     row("fit of the 1M series saved (1 client)", counts.fitMs);
     console.log(`  ${counts.reads} full reads (${((counts.reads * N * 16) / 1e6).toFixed(0)} MB), ${counts.fits} saved fits, ${counts.failures} failures; target /api/me p99 under load < 300 ms: ${pct(busy, 99) < 300 ? "met" : "NOT met"}`);
   } finally {
-    server.kill("SIGTERM");
-    await new Promise((r) => server.once("exit", r));
-    fs.rmSync(dir, { recursive: true, force: true });
+    await srv.stop();
   }
 }

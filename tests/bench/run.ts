@@ -1,5 +1,5 @@
 // `npm run bench`: benchmarks with figures and ratios against named peers run side by side (never timed tests).
-// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global`, `-- series`, `-- cli` or `-- load` runs one part (load needs `npm run build` first).
+// `npm run bench -- engine`, `-- formula`, `-- ingest`, `-- audit`, `-- limits`, `-- global`, `-- series`, `-- cli`, `-- load` or `-- page` runs one part (load and page need `npm run build` first).
 import { benchAudit } from "./audit";
 import { benchCli } from "./cli";
 import { benchEngine } from "./engine";
@@ -8,6 +8,7 @@ import { benchGlobal } from "./global";
 import { benchIngest } from "./ingest";
 import { benchLimits } from "./limits";
 import { benchLoad } from "./load";
+import { benchPage } from "./page";
 import { benchSeries } from "./series";
 
 const only = process.argv[2];
@@ -22,6 +23,7 @@ if (!only || only === "cli") benchCli();
   if (!only || only === "limits") await benchLimits();
   if (!only || only === "series") await benchSeries();
   if (!only || only === "load") await benchLoad();
+  if (!only || only === "page") await benchPage();
 })().catch((e: unknown) => {
   console.error(e);
   process.exitCode = 1;

@@ -1,0 +1,126 @@
+"use client";
+// The fitting page's plots: data with the fitted curves (click to exclude, box-select, the window as a band), the
+// residuals of each model, and the linearized view. Points are decimated for display; fits use every point.
+import type { Dispatch } from "react";
+import { Plot } from "@/components/plot/plot";
+import { Button } from "@/components/ui/button";
+import { CHANNEL_PALETTE } from "@/lib/colour/wavelength";
+import { decimate } from "@/lib/plot/decimate";
+import type { fitSeriesWithOptions } from "@/lib/kinetics/workspace";
+import { axes, lineTrace, markerTrace, pointTrace, windowBand, type Series } from "./fit-traces";
+import type { FitAction } from "./fit-state";
+
+/** Columns of the main plot the decimator fills (about its width in pixels). */
+export const PLOT_COLUMNS = 900;
+
+type Outcome = ReturnType<typeof fitSeriesWithOptions>;
+
+export interface Shown {
+  inc: number[];
+  ex: number[];
+  out: number[];
+  total: number;
+}
+
+export function FitPlots(props: {
+  points: Series;
+  outcome: Outcome;
+  shown: Shown;
+  curveModels: ReadonlySet<string>;
+  tScale: number;
+  yLabel: string;
+  colour: string;
+  conv: (v: number) => number;
+  window: { from: number | null; to: number | null };
+  tangent: { x: number[]; y: number[] } | null;
+  selected: number[];
+  excluded: ReadonlySet<number>;
+  dispatch: Dispatch<FitAction>;
+  onPointClick: (index: number) => void;
+}) {
+  const { points, outcome, shown, tScale, dispatch } = props;
+  const tLabel = tScale === 60 ? "t (min)" : "t (s)";
+  const fitted = outcome.models.filter((m) => props.curveModels.has(m.model) && m.result.converged);
+  const colourOf = (i: number) => CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length]!;
+  const scale = { t: tScale, y: props.conv };
+  const thinned = shown.inc.length + shown.out.length + shown.ex.length < shown.total;
+  const linearView = outcome.linearized_view;
+  return (
+    <>
+      <section className="rounded-cell bg-paper-raised p-4 shadow-lift" aria-label="Data and fitted curves">
+        <Plot
+          label="Data and fitted curves"
+          height={340}
+          data={[
+            pointTrace("included", shown.inc, points, scale, { color: props.colour, size: 6 }),
+            pointTrace("excluded", shown.ex, points, scale, { color: "#5d687c", size: 8, symbol: "x" }),
+            pointTrace("outside the window", shown.out, points, scale, { color: "#8a94a6", size: 7, symbol: "circle-open" }),
+            ...fitted.map((m, i) => {
+              const c = decimate(outcome.curves[m.model]!.t, outcome.curves[m.model]!.fitted, PLOT_COLUMNS);
+              return lineTrace(`${m.model} fit`, c.x, c.y, tScale, { color: colourOf(i), width: 2 });
+            }),
+            ...(props.tangent ? [lineTrace("tangent (model)", props.tangent.x, props.tangent.y, tScale, { color: "#1b2230", dash: "dash", width: 1.5 })] : []),
+          ]}
+          layout={axes(tLabel, props.yLabel, { shapes: windowBand(props.window.from, props.window.to, points.t, tScale), clickmode: "event" })}
+          onClick={(e) => {
+            const pt = e.points?.[0] as { customdata?: unknown } | undefined;
+            if (typeof pt?.customdata === "number") props.onPointClick(pt.customdata);
+          }}
+          onSelected={(e) => {
+            const idx = (e?.points ?? []).map((p) => (p as { customdata?: unknown }).customdata).filter((v): v is number => typeof v === "number");
+            dispatch({ type: "set", field: "selected", value: idx.filter((i) => !props.excluded.has(i)) });
+          }}
+        />
+        {props.selected.length > 0 && (
+          <div className="mt-2 flex flex-wrap items-center gap-2 rounded-cell bg-quartz-100 px-3 py-2 text-sm" data-testid="selection-bar">
+            <span>{props.selected.length} point(s) selected</span>
+            <Button size="sm" variant="secondary" onClick={() => dispatch({ type: "ask-exclusion", indices: props.selected })}>
+              Exclude them…
+            </Button>
+            <Button size="sm" variant="secondary" onClick={() => dispatch({ type: "window-of-selection", times: props.selected.map((i) => points.t[i]!) })}>
+              Fit only their time range
+            </Button>
+            <Button size="sm" variant="quiet" onClick={() => dispatch({ type: "set", field: "selected", value: [] })}>
+              Clear
+            </Button>
+          </div>
+        )}
+        <p className="mt-1 text-xs text-ink-500">
+          Click a point to exclude it (you will be asked why); click an excluded point (×) to restore it; open rings are outside the fitting window; or use the box-select tool to pick several.{" "}
+          {thinned ? `Shown: the first, lowest and highest reading of each plot column (${(shown.inc.length + shown.out.length + shown.ex.length).toLocaleString("en")} points); fits use all ${shown.total.toLocaleString("en")}.` : ""}
+        </p>
+      </section>
+
+      <section className="grid gap-4 lg:grid-cols-2">
+        <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
+          <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Residuals</h2>
+          <Plot
+            label="Residuals per model"
+            height={220}
+            data={fitted.map((m, i) => {
+              const r = decimate(outcome.curves[m.model]!.t, outcome.curves[m.model]!.residuals, PLOT_COLUMNS / 2);
+              return markerTrace(m.model, r.x, r.y, tScale, { size: 5, color: colourOf(i) });
+            })}
+            layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "y − fitted" }, zeroline: true } }}
+          />
+        </div>
+        <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
+          <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Linearized view</h2>
+          {linearView ? (
+            <Plot
+              label="ln|y − A∞| against time"
+              height={220}
+              data={(() => {
+                const v = decimate(linearView.t, linearView.ln, PLOT_COLUMNS / 2);
+                return [markerTrace("ln|y − A∞|", v.x, v.y, tScale, { size: 5, color: props.colour }), lineTrace("line", linearView.line.t, linearView.line.ln, tScale, { color: "#d55e00" })];
+              })()}
+              layout={axes(tLabel, "ln|y − A∞|")}
+            />
+          ) : (
+            <p className="text-sm text-ink-500">Add the linearized first-order model to see ln|y − A∞| against t.</p>
+          )}
+        </div>
+      </section>
+    </>
+  );
+}
