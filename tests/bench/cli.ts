@@ -5,6 +5,7 @@
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
+import { DEBIAN_PYTHON } from "../helpers/python";
 
 function median(cmd: string, args: string[]): number | null {
   const times: number[] = [];
@@ -26,8 +27,8 @@ export function benchCli(): void {
   row("cli --help, compiled bundle (node)", compiled);
   const tsx = median(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "lib/cli/main.ts", "--help"]);
   row("cli --help, TypeScript sources through tsx (before)", tsx);
-  row("peer: python3 -c 'import pandas, scipy.optimize'", median("python3", ["-c", "import pandas, scipy.optimize"]));
-  row("peer: python3 -c 'import scipy.optimize'", median("python3", ["-c", "import scipy.optimize"]));
+  row("peer: python3 -c 'import pandas, scipy.optimize' (Debian's)", median(DEBIAN_PYTHON, ["-c", "import pandas, scipy.optimize"]));
+  row("peer: python3 -c 'import scipy.optimize' (Debian's)", median(DEBIAN_PYTHON, ["-c", "import scipy.optimize"]));
   row("node itself (an empty script)", median(process.execPath, ["-e", "0"]));
   if (compiled !== null && tsx !== null) console.log(`  ratio tsx / bundle: ${(tsx / compiled).toFixed(1)}×`);
 }

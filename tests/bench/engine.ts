@@ -92,6 +92,7 @@ export function benchEngine(): void {
     return { s: (performance.now() - t0) / 1000, ok: r.status === 0, err: r.stderr };
   };
   const oursCli = [0, 1, 2].map(() => timeCmd("npm", ["run", "--silent", "cli", "--", "fit", csv, "--model", "first-order", "--json"]));
+  const oursNode = [0, 1, 2].map(() => timeCmd(process.execPath, ["lib/cli/launch.mjs", "fit", csv, "--model", "first-order", "--json"]));
   const peerCli = [0, 1, 2].map(() => timeCmd(DEBIAN_PYTHON, ["tests/bench/pandas_cli_fit.py", csv]));
   const o = median(oursCli.map((r) => r.s));
   console.log(`\nWhole command on a 1e6-point CSV (${mb.toFixed(1)} MB), median of 3 (wall clock, process start included)`);
@@ -100,6 +101,8 @@ export function benchEngine(): void {
     const p = median(peerCli.map((r) => r.s));
     console.log(`  python3 pandas.read_csv + curve_fit:                                  ${p.toFixed(2)} s`);
     console.log(`  ratio (cli / pandas+scipy): ${(o / p).toFixed(2)}`);
+    const n = median(oursNode.map((r) => r.s));
+    console.log(`  node lib/cli/launch.mjs fit … (the command without npm's own start): ${n.toFixed(2)} s, ratio ${(n / p).toFixed(2)} (target 1.0)`);
   } else console.log(`  pandas peer unavailable (${peerCli[0]!.err.trim().split("\n").at(-1)}); install Debian's python3-pandas`);
   fs.rmSync(dir, { recursive: true, force: true });
 }
