@@ -5,26 +5,16 @@
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { openDb } from "@/db";
 import { migrateToLatest } from "@/db/migrate";
 import { insertRawFile, insertRun, insertSeries, packF64 } from "@/db/queries/runs";
 import { DEMO_USERS, seedDemoWhenEmpty } from "@/db/seeds/demo";
+import { freePort } from "../helpers/free-port";
 
 const N = 1_000_000;
 const LOAD_SECONDS = 20;
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.listen(0, "127.0.0.1", () => {
-      const a = s.address();
-      s.close(() => (a && typeof a === "object" ? resolve(a.port) : reject(new Error("no port"))));
-    });
-  });
-}
 
 /** next-auth's credentials sign-in over HTTP; returns the Cookie header of the session. */
 export async function signIn(base: string, email: string, password: string): Promise<string> {

@@ -4,22 +4,12 @@
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, inject } from "vitest";
 import { startMailSink } from "@/lib/mail/sink";
 import type { BrowserEnv } from "./env";
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = net.createServer();
-    s.listen(0, "127.0.0.1", () => {
-      const a = s.address();
-      s.close(() => (a && typeof a === "object" ? resolve(a.port) : reject(new Error("no port"))));
-    });
-  });
-}
+import { freePort } from "../helpers/free-port";
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-e2e-file-"));
 const dbFile = path.join(dir, "e2e.sqlite");
