@@ -16,6 +16,18 @@ const config = [
       "no-restricted-imports": ["error", { patterns: ["@/db/queries/*", "knex"] }],
     },
   },
+  {
+    // Response bodies are read in lib/http only (typed: sendJson/useSend, the fetchers, FetchError with the server's
+    // problem); a component that fetched and read .json() itself would hold an untyped body.
+    files: ["components/**/*.ts", "components/**/*.tsx"],
+    rules: {
+      "no-restricted-syntax": [
+        "error",
+        { selector: "CallExpression[callee.name='fetch']", message: "Send and read through lib/http (sendJson, useSend, the fetchers): typed, with the server's problem and network failures handled." },
+        { selector: "CallExpression[callee.property.name='json']", message: "A response body is read in lib/http only, typed; use sendJson, useSend or a fetcher." },
+      ],
+    },
+  },
 ];
 
 export default config;
