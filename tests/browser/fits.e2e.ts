@@ -78,7 +78,7 @@ describe("fitting workspace", () => {
     await expect.poll(() => page.getByLabel("From (min)").inputValue()).toBe("1");
   });
 
-  it("excludes a point with a reason, fixes A∞, saves version 2 and shows what changed", async () => {
+  it("excludes a point with a reason, fixes A∞, survives a dropped connection on save, saves version 2 and shows what changed", async () => {
     await page.goto(`${baseURL}/fits`);
     await page.getByRole("link", { name: /corvane-blue-25C · Cell 1/ }).click();
     await page.getByRole("link", { name: "Change (new version)" }).click();
@@ -90,6 +90,13 @@ describe("fitting workspace", () => {
     await expect(page.getByTestId("exclusions").textContent()).resolves.toMatch(/#5 .*air bubble seen in cell 1/);
     await page.getByLabel("Fix A∞ at (measured)").fill("0.045");
     await page.getByLabel("Why this new version (required)").fill("bubble excluded; A∞ measured after 24 h");
+    // A dropped connection: the page says nothing was saved and the Save button works again.
+    await page.route("**/api/fits", (route) => (route.request().method() === "POST" ? route.abort("connectionreset") : route.continue()));
+    await page.getByTestId("save-fit").click();
+    await page.getByText("The server could not be reached, so nothing was saved.").first().waitFor();
+    await expect.poll(() => page.getByTestId("save-fit").isEnabled()).toBe(true);
+    expect(page.url()).not.toMatch(/\/fits\/\d+$/);
+    await page.unroute("**/api/fits");
     await page.getByTestId("save-fit").click();
     await page.waitForURL(/\/fits\/\d+$/);
     const versions = page.getByTestId("versions");
