@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/button";
 import { CHANNEL_PALETTE } from "@/lib/colour/wavelength";
 import { decimate } from "@/lib/plot/decimate";
 import type { fitSeriesWithOptions } from "@/lib/kinetics/workspace";
-import { axes, lineTrace, markerTrace, pointTrace, windowBand, type Series } from "./fit-traces";
+import { axes, lineTrace, markerTrace, pointTrace, windowBand, type Series } from "@/components/plot/traces";
 import type { FitAction } from "./fit-state";
 
 /** Columns of the main plot the decimator fills (about its width in pixels). */

@@ -99,7 +99,7 @@ export function readPlainTable(bytes: Uint8Array, planColumns: (found: FoundTabl
     const tailStart = Math.max(headEnd, bytes.length - TAIL_BYTES);
     const tailBytes = bytes.subarray(tailStart);
     for (let i = 0; i < tailBytes.length; i++) if (tailBytes[i]! >= 0x80) return null;
-    const tailLines = splitLines(Buffer.from(tailBytes.buffer, tailBytes.byteOffset, tailBytes.byteLength).toString("latin1")).slice(1);
+    const tailLines = splitLines(new TextDecoder("utf-8").decode(tailBytes)).slice(1); // ASCII, checked above
     if (tailLines.length < 200) return null;
     sample = [...headLines.slice(0, 200), ...tailLines.slice(-200)];
   }
@@ -205,7 +205,7 @@ function scanRows(bytes: Uint8Array, pos: number, found: FoundTable, plan: Table
         if (neg) v = -v;
       } else {
         // Beyond the exact fast path: the cell's own text through Number(), as the general path reads it.
-        const s = Buffer.from(bytes.buffer, bytes.byteOffset + numStart, p - numStart).toString("latin1");
+        const s = String.fromCharCode(...bytes.subarray(numStart, p));
         v = Number(comma ? s.replace(",", ".") : s);
       }
       while (p < n && (bytes[p] === SP || (bytes[p] === TAB && delim !== TAB))) p++;

@@ -1,4 +1,4 @@
-// The fitting page's plot traces, typed against plotly's own types (no casts): points by index, lines, the window band.
+// Plot traces, typed against plotly's own types (no casts): points by index, markers, lines, a band, axes.
 // What is drawn is decimated (lib/plot/decimate.ts), so a trace holds a few thousand points at most; SVG draws that
 // many faster than WebGL does without a GPU (bench page), so WebGL is kept for larger traces only.
 import type { Data, Layout, Shape } from "plotly.js";
