@@ -43,3 +43,16 @@ export function windowBand(from: number | null, to: number | null, t: ArrayLike<
 export function axes(x: string, y: string, extra: Partial<Layout> = {}): Partial<Layout> {
   return { xaxis: { title: { text: x } }, yaxis: { title: { text: y } }, ...extra };
 }
+
+/** A 95 % band: an invisible upper edge and the lower edge filled up to it (two traces, one legend entry). */
+export function bandTraces(name: string, x: readonly number[], low: readonly number[], high: readonly number[], fillcolor: string): Data[] {
+  return [
+    { type: "scatter", mode: "lines", name, x: [...x], y: [...high], line: { width: 0 }, showlegend: false, hoverinfo: "skip" },
+    { type: "scatter", mode: "lines", name, x: [...x], y: [...low], fill: "tonexty", fillcolor, line: { width: 0 } },
+  ];
+}
+
+/** Markers with symmetric error bars (±1 SE, say). */
+export function errorMarkerTrace(name: string, x: readonly number[], y: readonly number[], err: readonly number[], marker: { color: string; size: number }): Data {
+  return { type: "scatter", mode: "markers", name, x: [...x], y: [...y], error_y: { type: "data", array: [...err], visible: true }, marker };
+}
