@@ -1,5 +1,5 @@
 // Labelled inputs and selects: every control has a visible label and, when needed, an error tied to it.
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { useId, type InputHTMLAttributes, type ReactNode, type Ref, type SelectHTMLAttributes } from "react";
 import { cn } from "./cn";
 
 const CONTROL =
@@ -36,6 +36,8 @@ function FieldShell({ id, label, hint, error, children }: FieldShellProps) {
 }
 
 export interface InputProps extends InputHTMLAttributes<HTMLInputElement> {
+  /** React 19 passes a ref as a prop (react-hook-form's `register` gives one). */
+  ref?: Ref<HTMLInputElement>;
   label: string;
   hint?: string;
   error?: string;
@@ -58,6 +60,7 @@ export function Input({ label, hint, error, id, className, ...rest }: InputProps
 }
 
 export interface SelectProps extends SelectHTMLAttributes<HTMLSelectElement> {
+  ref?: Ref<HTMLSelectElement>;
   label: string;
   hint?: string;
   error?: string;

@@ -63,6 +63,14 @@ describe("methods and calibration", () => {
     await p.getByLabel("points fitted at least", { exact: true }).fill("20");
     await p.getByLabel("Use: SE(k)/k at most (%)").check();
     await p.getByLabel("SE(k)/k at most (%)", { exact: true }).fill("2");
+    // Checked with the route's own schema before anything is sent: the field says what is wrong.
+    await p.getByLabel("Window from (s)").fill("600");
+    await p.getByLabel("Window to (s)").fill("60");
+    await p.getByTestId("save-method").click();
+    await p.getByText("The window must end after it starts.").first().waitFor();
+    expect(p.url()).toMatch(/\/methods\/new$/);
+    await p.getByLabel("Window from (s)").fill("");
+    await p.getByLabel("Window to (s)").fill("");
     await p.getByTestId("save-method").click();
     await p.waitForURL(/\/methods\/\d+$/);
     const criteria = await p.getByTestId("method-criteria").textContent();
