@@ -1,0 +1,5 @@
+import { ListSkeleton } from "@/components/ui/list-skeleton";
+
+export default function Loading() {
+  return <ListSkeleton label="Loading studies" />;
+}
