@@ -1,6 +1,6 @@
 // Start rules and shared pieces of the exponential models.
 
-const GRID_SAMPLE = 2000;
+const GRID_SAMPLE = 256;
 
 /** Grid search over k with the two linear parameters solved exactly (variable projection): robust starts for decays
  * and rises alike, with no need for a guess of A∞. */

@@ -228,7 +228,7 @@ describe("quantities", () => {
 });
 
 describe("long series", () => {
-  it("the normal-equations path (used from 20 000 points) agrees with the QR path", async () => {
+  it("the normal-equations path (used from 1 000 points) agrees with the QR path", async () => {
     const { fitNonlinear } = await import("@/lib/kinetics");
     const { firstOrderFunction: m } = await import("@/lib/kinetics/models/first-order");
     const rnd = seededRandom(11);
