@@ -6,7 +6,7 @@ import { formatNumber, formatWithUncertainty } from "@/lib/format/number";
 import { modelById, parameterUnit, perMinuteFactor } from "@/lib/kinetics/models";
 import type { fitSeriesWithOptions } from "@/lib/kinetics/workspace";
 
-type Outcome = ReturnType<typeof fitSeriesWithOptions>;
+type Outcome = Pick<ReturnType<typeof fitSeriesWithOptions>, "models" | "favoured" | "notes">;
 type ModelRow = Outcome["models"][number];
 const dash = (v: number | null | undefined, f: (x: number) => string) => (v === null || v === undefined ? "—" : f(v));
 const inTime = (v: { value: number; se: number | null } | null, perMinute: boolean) =>

@@ -5,27 +5,14 @@ import type { Dispatch } from "react";
 import { Plot } from "@/components/plot/plot";
 import { Button } from "@/components/ui/button";
 import { CHANNEL_PALETTE } from "@/lib/colour/wavelength";
-import { decimate } from "@/lib/plot/decimate";
-import type { fitSeriesWithOptions } from "@/lib/kinetics/workspace";
 import { axes, lineTrace, markerTrace, pointTrace, windowBand, type Series } from "@/components/plot/traces";
+import type { FitDisplay, SlimOutcome } from "./fit-display";
 import type { FitAction } from "./fit-state";
-
-/** Columns of the main plot the decimator fills (about its width in pixels). */
-export const PLOT_COLUMNS = 900;
-
-type Outcome = ReturnType<typeof fitSeriesWithOptions>;
-
-export interface Shown {
-  inc: number[];
-  ex: number[];
-  out: number[];
-  total: number;
-}
 
 export function FitPlots(props: {
   points: Series;
-  outcome: Outcome;
-  shown: Shown;
+  outcome: SlimOutcome;
+  display: FitDisplay;
   curveModels: ReadonlySet<string>;
   tScale: number;
   yLabel: string;
@@ -38,7 +25,8 @@ export function FitPlots(props: {
   dispatch: Dispatch<FitAction>;
   onPointClick: (index: number) => void;
 }) {
-  const { points, outcome, shown, tScale, dispatch } = props;
+  const { points, outcome, display, tScale, dispatch } = props;
+  const { shown } = display;
   const tLabel = tScale === 60 ? "t (min)" : "t (s)";
   const fitted = outcome.models.filter((m) => props.curveModels.has(m.model) && m.result.converged);
   const colourOf = (i: number) => CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length]!;
@@ -56,7 +44,7 @@ export function FitPlots(props: {
             pointTrace("excluded", shown.ex, points, scale, { color: "#5d687c", size: 8, symbol: "x" }),
             pointTrace("outside the window", shown.out, points, scale, { color: "#8a94a6", size: 7, symbol: "circle-open" }),
             ...fitted.map((m, i) => {
-              const c = decimate(outcome.curves[m.model]!.t, outcome.curves[m.model]!.fitted, PLOT_COLUMNS);
+              const c = display.curves[m.model]!.fitted;
               return lineTrace(`${m.model} fit`, c.x, c.y, tScale, { color: colourOf(i), width: 2 });
             }),
             ...(props.tangent ? [lineTrace("tangent (model)", props.tangent.x, props.tangent.y, tScale, { color: "#1b2230", dash: "dash", width: 1.5 })] : []),
@@ -98,7 +86,7 @@ export function FitPlots(props: {
             label="Residuals per model"
             height={220}
             data={fitted.map((m, i) => {
-              const r = decimate(outcome.curves[m.model]!.t, outcome.curves[m.model]!.residuals, PLOT_COLUMNS / 2);
+              const r = display.curves[m.model]!.residuals;
               return markerTrace(m.model, r.x, r.y, tScale, { size: 5, color: colourOf(i) });
             })}
             layout={{ xaxis: { title: { text: tLabel } }, yaxis: { title: { text: "y − fitted" }, zeroline: true } }}
@@ -106,14 +94,11 @@ export function FitPlots(props: {
         </div>
         <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
           <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Linearized view</h2>
-          {linearView ? (
+          {linearView && display.linear ? (
             <Plot
               label="ln|y − A∞| against time"
               height={220}
-              data={(() => {
-                const v = decimate(linearView.t, linearView.ln, PLOT_COLUMNS / 2);
-                return [markerTrace("ln|y − A∞|", v.x, v.y, tScale, { size: 5, color: props.colour }), lineTrace("line", linearView.line.t, linearView.line.ln, tScale, { color: "#d55e00" })];
-              })()}
+              data={[markerTrace("ln|y − A∞|", display.linear.x, display.linear.y, tScale, { size: 5, color: props.colour }), lineTrace("line", linearView.line.t, linearView.line.ln, tScale, { color: "#d55e00" })]}
               layout={axes(tLabel, "ln|y − A∞|")}
             />
           ) : (

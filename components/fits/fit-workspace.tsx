@@ -18,12 +18,11 @@ import { DEFAULT_MODELS, fitUnits, MODELS, modelById } from "@/lib/kinetics/mode
 import { convertReading, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import type { FitOptions } from "@/lib/schemas/fits";
 import type { MethodForRun } from "@/lib/schemas/methods";
-import { decimateIndices } from "@/lib/plot/decimate";
 import { ComparisonTable } from "./comparison-table";
 import { CriteriaPanel } from "./criteria-panel";
 import { ExclusionDialog } from "./exclusion-dialog";
 import { FitControls } from "./fit-controls";
-import { FitPlots, PLOT_COLUMNS } from "./fit-plots";
+import { FitPlots } from "./fit-plots";
 import { ExclusionsPanel, RatePanel, SavePanel } from "./fit-side-panels";
 import { buildFitOptions, fitReducer, initialFitState } from "./fit-state";
 import { useSeriesFit } from "./use-fit";
@@ -138,17 +137,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     const yAt = modelById("first-order")!.curve!(Float64Array.of(tAt), p)[0]!;
     return { model, data, line: { x: [tAt - span * 2, tAt + span * 2], y: [yAt + model * span * 2, yAt - model * span * 2] } };
   }, [s.rateAt, outcome, tScale, points]);
-  // Drawn: at most about three points per plot column of each kind (lib/plot/decimate.ts); fitted: every point.
-  const shown = useMemo(() => {
-    if (!outcome) return null;
-    const inc: number[] = [],
-      ex: number[] = [],
-      out: number[] = [];
-    for (let i = 0; i < points.t.length; i++) (outcome.included[i] ? inc : excluded.has(i) ? ex : out).push(i);
-    const thin = (idx: number[]) => decimateIndices(idx.map((i) => points.t[i]!), idx.map((i) => points.y[i]!), PLOT_COLUMNS).map((j) => idx[j]!);
-    return { inc: thin(inc), ex, out: thin(out), total: points.t.length };
-  }, [outcome, points, excluded]);
-  if (!outcome || !shown) {
+  if (!outcome || !result) {
     return (
       <div className="space-y-4" aria-label="Fitting the series" aria-busy="true" data-testid="first-fit">
         <p className="text-sm text-ink-700">Fitting {points.t.length.toLocaleString("en")} points in a background worker…</p>
@@ -157,7 +146,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
       </div>
     );
   }
-  const { ms, where } = result!;
+  const { ms, where, display } = result;
   const yUnit = fitUnits(outcome.quantity, options.conversion).y;
   const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
 
@@ -167,7 +156,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
         <FitPlots
           points={points}
           outcome={outcome}
-          shown={shown}
+          display={display}
           curveModels={CURVE_MODELS}
           tScale={tScale}
           yLabel={outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`}

@@ -2,6 +2,7 @@
 import * as mathjs from "mathjs";
 import { provideMathjs } from "@/lib/kinetics/formula";
 import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
+import { fitDisplay } from "./fit-display";
 
 provideMathjs(mathjs);
 
@@ -19,8 +20,10 @@ self.onmessage = (e: MessageEvent<Message>) => {
   }
   const started = performance.now();
   try {
-    const outcome = fitSeriesWithOptions(t, y, m.options);
-    postMessage({ id: m.id, outcome, ms: performance.now() - started });
+    // The fit uses every point; what the page draws is decimated here, off its main thread.
+    const full = fitSeriesWithOptions(t, y, m.options);
+    const { outcome, display } = fitDisplay(full, t, y, new Set((m.options.exclusions ?? []).map((e) => e.index)));
+    postMessage({ id: m.id, outcome, display, ms: performance.now() - started });
   } catch (err) {
     postMessage({ id: m.id, error: err instanceof Error ? err.message : String(err) });
   }

@@ -5,12 +5,20 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import * as mathjs from "mathjs";
 import { provideMathjs } from "@/lib/kinetics/formula";
-import { fitSeriesWithOptions, type SeriesFitOptions, type SeriesFitOutcome } from "@/lib/kinetics/workspace";
+import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
+import { fitDisplay, type FitDisplay, type SlimOutcome } from "./fit-display";
 
 // Where workers are unavailable the page fits itself, formulas included.
 provideMathjs(mathjs);
 
-type Result = { outcome: SeriesFitOutcome; ms: number | null; where: "worker" | "page" };
+type Result = { outcome: SlimOutcome; display: FitDisplay; ms: number | null; where: "worker" | "page" };
+
+/** The page fitting itself (no workers): the same fit and the same decimation as the worker's. */
+function fitOnPage(t: Float64Array, y: Float64Array, options: SeriesFitOptions): Result {
+  const started = performance.now();
+  const r = fitDisplay(fitSeriesWithOptions(t, y, options), t, y, new Set((options.exclusions ?? []).map((e) => e.index)));
+  return { ...r, ms: performance.now() - started, where: "page" };
+}
 
 export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions) {
   const tArr = useMemo(() => Float64Array.from(t), [t]);
@@ -18,8 +26,7 @@ export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions
   const hasWorker = typeof Worker !== "undefined";
   const [state, setState] = useState<Result | null>(() => {
     if (hasWorker) return null;
-    const started = performance.now();
-    return { outcome: fitSeriesWithOptions(tArr, yArr, options), ms: performance.now() - started, where: "page" };
+    return fitOnPage(tArr, yArr, options);
   });
   const [busy, setBusy] = useState(hasWorker);
   const worker = useRef<{ w: Worker; busy: boolean } | null>(null);
@@ -30,9 +37,8 @@ export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions
     const parsed = JSON.parse(key) as SeriesFitOptions;
     const id = ++seq.current;
     if (typeof Worker === "undefined") {
-      const started = performance.now();
-      const outcome = fitSeriesWithOptions(tArr, yArr, parsed);
-      queueMicrotask(() => setState({ outcome, ms: performance.now() - started, where: "page" }));
+      const r = fitOnPage(tArr, yArr, parsed);
+      queueMicrotask(() => setState(r));
       return;
     }
     // A worker still fitting older options is ended (cancelled), not waited for.
@@ -44,11 +50,11 @@ export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions
       const w = new Worker(new URL("./fit.worker.ts", import.meta.url), { type: "module" });
       w.postMessage({ type: "data", t: tArr, y: yArr });
       const slot = { w, busy: false };
-      w.onmessage = (e: MessageEvent<{ id: number; outcome?: SeriesFitOutcome; ms?: number; error?: string }>) => {
+      w.onmessage = (e: MessageEvent<{ id: number; outcome?: SlimOutcome; display?: FitDisplay; ms?: number; error?: string }>) => {
         slot.busy = false;
         if (e.data.id !== seq.current) return; // a newer request is on its way
         setBusy(false);
-        if (e.data.outcome) setState({ outcome: e.data.outcome, ms: e.data.ms ?? null, where: "worker" });
+        if (e.data.outcome && e.data.display) setState({ outcome: e.data.outcome, display: e.data.display, ms: e.data.ms ?? null, where: "worker" });
       };
       worker.current = slot;
     }

@@ -1,0 +1,41 @@
+// What the fitting page draws from a fit, decimated where the fit is computed (the Web Worker), so a million-point
+// series never crosses to the page's main thread as curves: the points by kind (included, excluded, outside the
+// window), each model's curve and residuals, and the linearized view, each at most a few points per plot column.
+import type { SeriesFitOutcome } from "@/lib/kinetics/workspace";
+import { decimate, decimateIndices } from "@/lib/plot/decimate";
+
+/** Columns of the main plot the decimator fills (about its width in pixels); the small plots use half. */
+export const PLOT_COLUMNS = 900;
+
+export interface FitDisplay {
+  /** Indices into the series of the points drawn, by kind. */
+  shown: { inc: number[]; ex: number[]; out: number[]; total: number };
+  curves: Record<string, { fitted: { x: number[]; y: number[] }; residuals: { x: number[]; y: number[] } }>;
+  linear: { x: number[]; y: number[] } | null;
+}
+
+/** The outcome without its full-length curves (what crosses to the page beside the display). */
+export type SlimOutcome = Omit<SeriesFitOutcome, "curves" | "linearized_view"> & { linearized_view: { line: NonNullable<SeriesFitOutcome["linearized_view"]>["line"] } | null };
+
+export function fitDisplay(outcome: SeriesFitOutcome, t: ArrayLike<number>, y: ArrayLike<number>, excluded: ReadonlySet<number>): { outcome: SlimOutcome; display: FitDisplay } {
+  const inc: number[] = [],
+    ex: number[] = [],
+    out: number[] = [];
+  for (let i = 0; i < t.length; i++) (outcome.included[i] ? inc : excluded.has(i) ? ex : out).push(i);
+  const thin = (idx: number[]) => {
+    const ts = new Float64Array(idx.length),
+      ys = new Float64Array(idx.length);
+    idx.forEach((i, j) => ((ts[j] = t[i]!), (ys[j] = y[i]!)));
+    return decimateIndices(ts, ys, PLOT_COLUMNS).map((j) => idx[j]!);
+  };
+  const curves: FitDisplay["curves"] = {};
+  for (const [model, c] of Object.entries(outcome.curves)) {
+    curves[model] = { fitted: decimate(c.t, c.fitted, PLOT_COLUMNS), residuals: decimate(c.t, c.residuals, PLOT_COLUMNS / 2) };
+  }
+  const lv = outcome.linearized_view;
+  const { curves: _c, linearized_view: _l, ...rest } = outcome;
+  return {
+    outcome: { ...rest, linearized_view: lv ? { line: lv.line } : null },
+    display: { shown: { inc: thin(inc), ex, out: thin(out), total: t.length }, curves, linear: lv ? decimate(lv.t, lv.ln, PLOT_COLUMNS / 2) : null },
+  };
+}
