@@ -7,7 +7,9 @@ import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
+import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
 import { problemText, sendJson } from "@/lib/http/client";
+import { createApiKeySchema } from "@/lib/schemas/admin";
 
 interface Key {
   id: number;
@@ -22,19 +24,19 @@ interface Key {
 export function ApiKeys({ keys }: { keys: Key[] }) {
   const router = useRouter();
   const toast = useToast();
-  const [name, setName] = useState("");
   const [fresh, setFresh] = useState<{ name: string; key: string } | null>(null);
-  async function create() {
-    let body: { name: string; key: string };
+  const { register, handleSubmit, reset, formState } = useSchemaForm<{ name: string }, typeof createApiKeySchema>((v) => v, createApiKeySchema, { name: "" });
+  const create = handleSubmit(async (body) => {
+    let out: { name: string; key: string };
     try {
-      body = await sendJson<{ name: string; key: string }>("/api/admin/api-keys", { body: { name } });
+      out = await sendJson<{ name: string; key: string }>("/api/admin/api-keys", { body });
     } catch (e) {
       return toast(problemText(e), "fault");
     }
-    setFresh({ name: body.name, key: body.key });
-    setName("");
+    setFresh({ name: out.name, key: out.key });
+    reset({ name: "" });
     router.refresh();
-  }
+  });
   async function revoke(id: number) {
     try {
       await sendJson(`/api/admin/api-keys/${id}`, { method: "DELETE" });
@@ -48,15 +50,15 @@ export function ApiKeys({ keys }: { keys: Key[] }) {
     <>
       <form
         className="mb-6 flex max-w-2xl items-end gap-3 rounded-cell bg-paper-raised p-4 shadow-lift"
-        onSubmit={(e) => {
-          e.preventDefault();
-          void create();
-        }}
+        onSubmit={create}
+        noValidate
       >
         <div className="flex-1">
-          <Input label="Instrument or PC" value={name} onChange={(e) => setName(e.target.value)} placeholder="Bench 2 spectrophotometer" required minLength={2} />
+          <Input label="Instrument or PC" {...register("name")} error={fieldError(formState.errors, "name")} placeholder="Bench 2 spectrophotometer" required minLength={2} />
         </div>
-        <Button type="submit">Create key</Button>
+        <Button type="submit" disabled={formState.isSubmitting}>
+          Create key
+        </Button>
       </form>
       {fresh && (
         <div className="mb-6 max-w-3xl rounded-cell border-l-4 border-quartz-700 bg-quartz-100 px-4 py-3 text-sm" role="status" data-testid="new-key">

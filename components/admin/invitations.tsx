@@ -1,13 +1,22 @@
 "use client";
 // Inviting a person by e-mail with a role, and the invitations sent (open, accepted, expired, withdrawn).
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Input, Select } from "@/components/ui/field";
 import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
 import { problemText, sendJson } from "@/lib/http/client";
+import { inviteSchema } from "@/lib/schemas/admin";
+
+interface InviteValues {
+  email: string;
+  name: string;
+  role: string;
+  days: string;
+}
+const toBody = (v: InviteValues) => ({ ...v, days: Number(v.days) });
 
 interface Invitation {
   id: number;
@@ -23,28 +32,21 @@ interface Invitation {
 export function Invitations({ invitations, roles }: { invitations: Invitation[]; roles: Array<{ value: string; label: string }> }) {
   const router = useRouter();
   const toast = useToast();
-  const [email, setEmail] = useState("");
-  const [name, setName] = useState("");
-  const [role, setRole] = useState("analyst");
-  const [days, setDays] = useState("7");
-  const [busy, setBusy] = useState(false);
+  const { register, handleSubmit, reset, getValues, formState } = useSchemaForm<InviteValues, typeof inviteSchema>(toBody, inviteSchema, { email: "", name: "", role: "analyst", days: "7" });
+  const err = (path: keyof InviteValues) => fieldError(formState.errors, path);
   const roleLabel = (r: string) => roles.find((x) => x.value === r)?.label ?? r;
 
-  async function invite() {
-    setBusy(true);
-    let body: { mailed: boolean };
+  const invite = handleSubmit(async (body) => {
+    let out: { mailed: boolean };
     try {
-      body = await sendJson<{ mailed: boolean }>("/api/admin/invitations", { body: { email, name, role, days: Number(days) } });
+      out = await sendJson<{ mailed: boolean }>("/api/admin/invitations", { body });
     } catch (e) {
       return toast(problemText(e), "fault");
-    } finally {
-      setBusy(false);
     }
-    toast(body.mailed ? `Invitation sent to ${email}.` : `Invitation saved, but no mail server is configured: ${email} has not been told.`, body.mailed ? "pass" : "fault");
-    setEmail("");
-    setName("");
+    toast(out.mailed ? `Invitation sent to ${body.email}.` : `Invitation saved, but no mail server is configured: ${body.email} has not been told.`, out.mailed ? "pass" : "fault");
+    reset({ ...getValues(), email: "", name: "" });
     router.refresh();
-  }
+  });
   async function withdraw(id: number) {
     try {
       await sendJson(`/api/admin/invitations/${id}`, { method: "DELETE" });
@@ -60,17 +62,15 @@ export function Invitations({ invitations, roles }: { invitations: Invitation[];
       <h2 className="mb-3 text-lg font-semibold">Invite someone</h2>
       <form
         className="mb-6 grid max-w-4xl gap-3 rounded-cell bg-paper-raised p-4 shadow-lift md:grid-cols-[1fr_1fr_12rem_7rem_auto] md:items-end"
-        onSubmit={(e) => {
-          e.preventDefault();
-          void invite();
-        }}
+        onSubmit={invite}
+        noValidate
       >
-        <Input label="E-mail" type="email" value={email} onChange={(e) => setEmail(e.target.value)} required />
-        <Input label="Name" value={name} onChange={(e) => setName(e.target.value)} required />
-        <Select label="Role" value={role} onChange={(e) => setRole(e.target.value)} options={roles} />
-        <Input label="Valid (days)" inputMode="numeric" value={days} onChange={(e) => setDays(e.target.value)} />
-        <Button type="submit" disabled={busy} data-testid="send-invitation">
-          {busy ? "Sending…" : "Send invitation"}
+        <Input label="E-mail" type="email" {...register("email")} error={err("email")} required />
+        <Input label="Name" {...register("name")} error={err("name")} required />
+        <Select label="Role" {...register("role")} error={err("role")} options={roles} />
+        <Input label="Valid (days)" inputMode="numeric" {...register("days")} error={err("days")} />
+        <Button type="submit" disabled={formState.isSubmitting} data-testid="send-invitation">
+          {formState.isSubmitting ? "Sending…" : "Send invitation"}
         </Button>
       </form>
       <p className="-mt-4 mb-6 text-sm text-ink-500">The invitee gets a link that works once, until it expires, to set a password under the lab&apos;s rules.</p>

@@ -1,62 +1,71 @@
 "use client";
-// The lab's settings, changed with a reason (audited with old and new values).
+// The lab's settings, changed with a reason (audited with old and new values); checked with the route's own schema.
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useWatch } from "react-hook-form";
+import { fieldError, formMessages, serverProblem, useSchemaForm } from "@/components/forms/schema-form";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
-import { problemLines, sendJson } from "@/lib/http/client";
+import { sendJson } from "@/lib/http/client";
+import { labSettingsSchema } from "@/lib/schemas/admin";
+
+interface Values {
+  outside_links: boolean;
+  default_link_days: string;
+  upload_limit_mb: string;
+  password_min_length: string;
+  reason: string;
+}
+
+const toBody = (v: Values) => ({ ...v, default_link_days: Number(v.default_link_days), upload_limit_mb: Number(v.upload_limit_mb), password_min_length: Number(v.password_min_length) });
 
 export function LabSettingsForm({ initial }: { initial: { outside_links: boolean; default_link_days: number; upload_limit_mb: number; password_min_length: number } }) {
   const router = useRouter();
   const toast = useToast();
-  const [outside, setOutside] = useState(initial.outside_links);
-  const [days, setDays] = useState(String(initial.default_link_days));
-  const [upload, setUpload] = useState(String(initial.upload_limit_mb));
-  const [pw, setPw] = useState(String(initial.password_min_length));
-  const [reason, setReason] = useState("");
-  const [errors, setErrors] = useState<string[]>([]);
-  async function save() {
-    setErrors([]);
+  const { register, handleSubmit, control, setError, reset, formState } = useSchemaForm<Values, typeof labSettingsSchema>(toBody, labSettingsSchema, {
+    outside_links: initial.outside_links,
+    default_link_days: String(initial.default_link_days),
+    upload_limit_mb: String(initial.upload_limit_mb),
+    password_min_length: String(initial.password_min_length),
+    reason: "",
+  });
+  const reason = useWatch({ control, name: "reason" });
+  const err = (path: keyof Values) => fieldError(formState.errors, path);
+  const problems = formMessages(formState.errors);
+  const save = handleSubmit(async (body) => {
     try {
-      await sendJson("/api/admin/settings", { method: "PUT", body: { outside_links: outside, default_link_days: Number(days), upload_limit_mb: Number(upload), password_min_length: Number(pw), reason } });
+      await sendJson("/api/admin/settings", { method: "PUT", body });
     } catch (e) {
-      setErrors(problemLines(e));
+      setError("root.server", serverProblem(e));
       return;
     }
     toast("Settings saved, and written to the audit trail.", "pass");
-    setReason("");
+    reset({ ...body, default_link_days: String(body.default_link_days), upload_limit_mb: String(body.upload_limit_mb), password_min_length: String(body.password_min_length), reason: "" });
     router.refresh();
-  }
+  });
   return (
-    <form
-      className="max-w-2xl space-y-4 rounded-cell bg-paper-raised p-5 shadow-lift"
-      onSubmit={(e) => {
-        e.preventDefault();
-        void save();
-      }}
-    >
+    <form className="max-w-2xl space-y-4 rounded-cell bg-paper-raised p-5 shadow-lift" onSubmit={save} noValidate>
       <label className="flex items-start gap-2 text-sm">
-        <input type="checkbox" checked={outside} onChange={(e) => setOutside(e.target.checked)} className="mt-1" />
+        <input type="checkbox" {...register("outside_links")} className="mt-1" />
         <span>
           <span className="font-semibold">Share links may be sent to outside reviewers</span>
           <span className="block text-ink-500">On: a link may be mailed to someone outside the lab, who opens that one pinned version read-only without an account. Off: links go to members only, who sign in to open them. Every opening is logged.</span>
         </span>
       </label>
       <div className="grid gap-4 sm:grid-cols-3">
-        <Input label="Share links expire after (days)" inputMode="numeric" value={days} onChange={(e) => setDays(e.target.value)} />
-        <Input label="Upload limit (MB per file)" inputMode="numeric" value={upload} onChange={(e) => setUpload(e.target.value)} hint="At most 50 MB, the server's own limit." />
-        <Input label="Passwords at least (characters)" inputMode="numeric" value={pw} onChange={(e) => setPw(e.target.value)} hint="10 or more; never the e-mail address." />
+        <Input label="Share links expire after (days)" inputMode="numeric" {...register("default_link_days")} error={err("default_link_days")} />
+        <Input label="Upload limit (MB per file)" inputMode="numeric" {...register("upload_limit_mb")} error={err("upload_limit_mb")} hint="At most 50 MB, the server's own limit." />
+        <Input label="Passwords at least (characters)" inputMode="numeric" {...register("password_min_length")} error={err("password_min_length")} hint="10 or more; never the e-mail address." />
       </div>
-      <Input label="Why this change (required)" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={3} />
-      {errors.length > 0 && (
+      <Input label="Why this change (required)" {...register("reason")} error={err("reason")} required minLength={3} />
+      {problems.length > 0 && (
         <ul role="alert" className="list-disc pl-5 text-sm text-fault-700">
-          {errors.map((e) => (
+          {problems.map((e) => (
             <li key={e}>{e}</li>
           ))}
         </ul>
       )}
-      <Button type="submit" disabled={reason.trim().length < 3}>
+      <Button type="submit" disabled={formState.isSubmitting || (reason ?? "").trim().length < 3}>
         Save settings
       </Button>
     </form>

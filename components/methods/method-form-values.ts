@@ -2,7 +2,7 @@
 // schema the form is checked with: the values turned into the request body, then the route's own schema
 // (createMethodSchema, or newMethodVersionSchema with a reason), so the form refuses exactly what the route refuses.
 // Issue paths are the body's (definition.window.from_s, …); the form's fields carry the same names.
-import { z } from "zod";
+import { bodySchema } from "@/components/forms/schema-form";
 import { formatStartValues, parseDecimalField, parseStartValues } from "@/lib/format/input";
 import type { Criterion } from "@/lib/kinetics/criteria";
 import { DEFAULT_METHOD_MODELS, MODELS } from "@/lib/kinetics/models";
@@ -110,7 +110,7 @@ export function methodBody(v: MethodFormValues, versioned: boolean) {
 
 /** The form's schema: its values → the body → the route's own schema. */
 export function methodFormSchema(versioned: boolean) {
-  return z.custom<MethodFormValues>(() => true).pipe(z.preprocess((v) => methodBody(v as MethodFormValues, versioned), versioned ? newMethodVersionSchema : createMethodSchema));
+  return bodySchema((v: MethodFormValues) => methodBody(v, versioned), versioned ? newMethodVersionSchema : createMethodSchema);
 }
 
 /** The form field an issue of the body belongs to: criteria are numbered among the ticked ones in the body. */

@@ -7,28 +7,17 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useMemo } from "react";
-import { get, useFieldArray, useForm, useWatch, type FieldErrors, type Resolver } from "react-hook-form";
+import { useFieldArray, useForm, useWatch, type Resolver } from "react-hook-form";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { problemLines, sendJson } from "@/lib/http/client";
+import { fieldError, formMessages } from "@/components/forms/schema-form";
 import type { MethodDefinition } from "@/lib/schemas/methods";
 import { CRITERIA, formPath, METHOD_MODELS, methodFormDefaults, methodFormSchema, type MethodFormValues } from "./method-form-values";
 
 type Body = z.output<ReturnType<typeof methodFormSchema>>;
-
-/** Every message in a form's errors, "field: message", in the form's order. */
-function messages(errors: FieldErrors, prefix = ""): string[] {
-  const out: string[] = [];
-  for (const [k, v] of Object.entries(errors)) {
-    if (!v || typeof v !== "object") continue;
-    const path = prefix ? `${prefix}.${k}` : k;
-    if (typeof (v as { message?: unknown }).message === "string" && (v as { message: string }).message) out.push(`${path.replace(/^definition\./, "").replace(/^root\.server$/, "")}${path === "root.server" ? "" : ": "}${(v as { message: string }).message}`);
-    else out.push(...messages(v as FieldErrors, path));
-  }
-  return out;
-}
 
 export function MethodForm({
   initial,
@@ -59,7 +48,7 @@ export function MethodForm({
   const { register, handleSubmit, control, setError, formState } = useForm<MethodFormValues, unknown, Body>({ defaultValues: methodFormDefaults(initial, calibrations), resolver });
   const customs = useFieldArray({ control, name: "definition.custom_models" });
   const { errors, isSubmitting } = formState;
-  const err = (path: string) => (get(errors, path) as { message?: string } | undefined)?.message;
+  const err = (path: string) => fieldError(errors, path);
   const concKind = useWatch({ control, name: "definition.concentration.kind" });
   const blankKind = useWatch({ control, name: "definition.blank.kind" });
   const criteria = useWatch({ control, name: "definition.criteria" });
@@ -79,9 +68,9 @@ export function MethodForm({
       toast(`Saved as version ${out.version}.`, "pass");
       router.push(`/methods/${out.id}`);
     },
-    (invalid) => toast(messages(invalid)[0] ?? "Check the marked fields.", "fault"),
+    (invalid) => toast(formMessages(invalid, "", /^definition\./)[0] ?? "Check the marked fields.", "fault"),
   );
-  const problems = messages(errors);
+  const problems = formMessages(errors, "", /^definition\./);
 
   return (
     <form className="grid max-w-5xl gap-6 lg:grid-cols-2" onSubmit={save} noValidate>

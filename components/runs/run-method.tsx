@@ -7,7 +7,16 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
+import { useWatch } from "react-hook-form";
+import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
 import { problemText, sendJson } from "@/lib/http/client";
+import { assignMethodSchema } from "@/lib/schemas/methods";
+
+interface Values {
+  methodId: string;
+  reason: string;
+  wavelengthReason: string;
+}
 
 export function RunMethod({
   runId,
@@ -25,29 +34,29 @@ export function RunMethod({
   const router = useRouter();
   const toast = useToast();
   const [open, setOpen] = useState(false);
-  const [choice, setChoice] = useState(String(current?.record_id ?? choices[0]?.record_id ?? ""));
-  const [reason, setReason] = useState("");
-  const [wavelengthReason, setWavelengthReason] = useState("");
-  const [busy, setBusy] = useState(false);
-  const chosen = choices.find((c) => String(c.record_id) === choice);
   // The same rule as the server's (more than 1 nm apart): the dialog asks for the reason before the server must.
-  const mismatch = chosen && chosen.wavelength_nm !== null && runWavelength !== null && Math.abs(chosen.wavelength_nm - runWavelength) > 1 ? chosen.wavelength_nm : null;
-  async function assign() {
-    setBusy(true);
-    let body: { method: { name: string; version: number } | null };
+  const mismatchOf = (choice: string) => {
+    const chosen = choices.find((c) => String(c.record_id) === choice);
+    return chosen && chosen.wavelength_nm !== null && runWavelength !== null && Math.abs(chosen.wavelength_nm - runWavelength) > 1 ? chosen.wavelength_nm : null;
+  };
+  const toBody = (v: Values) => ({ methodId: v.methodId ? Number(v.methodId) : null, reason: v.reason, ...(mismatchOf(v.methodId) !== null ? { wavelengthReason: v.wavelengthReason } : {}) });
+  const { register, handleSubmit, control, reset, formState } = useSchemaForm<Values, typeof assignMethodSchema>(toBody, assignMethodSchema, { methodId: String(current?.record_id ?? choices[0]?.record_id ?? ""), reason: "", wavelengthReason: "" });
+  const [choice, reason, wavelengthReason] = useWatch({ control, name: ["methodId", "reason", "wavelengthReason"] });
+  const mismatch = mismatchOf(choice);
+  const err = (path: keyof Values) => fieldError(formState.errors, path);
+  const assign = handleSubmit(async (body) => {
+    let out: { method: { name: string; version: number } | null };
     try {
-      body = await sendJson<{ method: { name: string; version: number } | null }>(`/api/runs/${runId}/method`, { body: { methodId: choice ? Number(choice) : null, reason, ...(mismatch !== null ? { wavelengthReason } : {}) } });
+      out = await sendJson<{ method: { name: string; version: number } | null }>(`/api/runs/${runId}/method`, { body });
     } catch (e) {
       toast(problemText(e), "fault");
       return;
-    } finally {
-      setBusy(false);
     }
-    toast(body.method ? `Method set to ${body.method.name} (v${body.method.version}).` : "Method cleared.", "pass");
+    toast(out.method ? `Method set to ${out.method.name} (v${out.method.version}).` : "Method cleared.", "pass");
     setOpen(false);
-    setReason("");
+    reset({ methodId: choice, reason: "", wavelengthReason: "" });
     router.refresh();
-  }
+  });
   return (
     <span data-testid="run-method">
       {current ? (
@@ -63,21 +72,15 @@ export function RunMethod({
         </Button>
       )}
       <Dialog open={open} onClose={() => setOpen(false)} title="Method of this run">
-        <form
-          className="space-y-4"
-          onSubmit={(e) => {
-            e.preventDefault();
-            void assign();
-          }}
-        >
-          <Select label="Method" value={choice} onChange={(e) => setChoice(e.target.value)} options={[{ value: "", label: "No method" }, ...choices.map((c) => ({ value: String(c.record_id), label: `${c.name} (v${c.version})` }))]} />
-          <Input label="Reason (required)" value={reason} onChange={(e) => setReason(e.target.value)} required minLength={3} />
+        <form className="space-y-4" onSubmit={assign} noValidate>
+          <Select label="Method" {...register("methodId")} error={err("methodId")} options={[{ value: "", label: "No method" }, ...choices.map((c) => ({ value: String(c.record_id), label: `${c.name} (v${c.version})` }))]} />
+          <Input label="Reason (required)" {...register("reason")} error={err("reason")} required minLength={3} />
           {mismatch !== null && (
             <div className="rounded-cell bg-caution-100 px-3 py-2 text-sm text-caution-700" data-testid="wavelength-mismatch">
               <p>
                 This method is for {mismatch} nm; the run was measured at {runWavelength} nm. Its absorptivity or calibration and its criteria may not hold here.
               </p>
-              <Input label="Why the method applies at this wavelength (required)" value={wavelengthReason} onChange={(e) => setWavelengthReason(e.target.value)} required minLength={3} />
+              <Input label="Why the method applies at this wavelength (required)" {...register("wavelengthReason")} error={err("wavelengthReason")} required minLength={3} />
             </div>
           )}
           <p className="text-sm text-ink-500">Fits saved from now on are judged by the method&apos;s newest version; saved fits keep their verdict.</p>
@@ -85,7 +88,7 @@ export function RunMethod({
             <Button variant="secondary" onClick={() => setOpen(false)}>
               Cancel
             </Button>
-            <Button type="submit" disabled={busy || reason.trim().length < 3 || (mismatch !== null && wavelengthReason.trim().length < 3)}>
+            <Button type="submit" disabled={formState.isSubmitting || (reason ?? "").trim().length < 3 || (mismatch !== null && (wavelengthReason ?? "").trim().length < 3)}>
               Save
             </Button>
           </div>
