@@ -13,6 +13,9 @@ import { fetcher } from "@/lib/http/fetcher";
 import type { JobView } from "@/lib/jobs/background";
 import type { ValidationRecord } from "@/lib/validation/records";
 import { problemText, sendJson } from "@/lib/http/client";
+import { useWatch } from "react-hook-form";
+import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
+import { submitSchema } from "@/lib/schemas/reviews";
 
 interface RunRow {
   id: number;
@@ -29,7 +32,6 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
   const toast = useToast();
   const [jobId, setJobId] = useState<number | null>(active?.id ?? null);
   const [starting, setStarting] = useState(false);
-  const [password, setPassword] = useState("");
   const [onlyFailed, setOnlyFailed] = useState(false);
   // The queued run is watched until it ends (its row holds the progress the server writes as it goes).
   const { data } = useSWR<{ job: JobView }>(jobId ? `/api/jobs/${jobId}` : null, fetcher, {
@@ -61,17 +63,6 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
     } finally {
       setStarting(false);
     }
-  }
-  async function sign() {
-    if (!record) return;
-    try {
-      await sendJson(`/api/validation/${record.id}/sign`, { body: { password } });
-    } catch (e) {
-      return toast(problemText(e), "fault");
-    }
-    setPassword("");
-    toast("Report signed.", "pass");
-    router.refresh();
   }
 
   const cases = record ? record.report.cases.filter((c) => !onlyFailed || !c.pass) : [];
@@ -141,14 +132,7 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
                 JSON
               </a>
               {record.signatures.length === 0 ? (
-                <>
-                  <div className="w-56">
-                    <Input label="Your password, to sign" type="password" value={password} onChange={(e) => setPassword(e.target.value)} />
-                  </div>
-                  <Button variant="secondary" onClick={sign} disabled={!password}>
-                    Sign the report
-                  </Button>
-                </>
+                <SignReport recordId={record.id} />
               ) : (
                 record.signatures.map((s) => (
                   <p key={s.signed_at} className="text-sm">
@@ -192,5 +176,33 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
         </section>
       )}
     </div>
+  );
+}
+
+/** Signing the report with the password (the route's own schema checks the form first). */
+function SignReport({ recordId }: { recordId: number }) {
+  const router = useRouter();
+  const toast = useToast();
+  const { register, handleSubmit, control, reset, formState } = useSchemaForm<{ password: string }, typeof submitSchema>((v) => v, submitSchema, { password: "" });
+  const password = useWatch({ control, name: "password" });
+  const sign = handleSubmit(async (body) => {
+    try {
+      await sendJson(`/api/validation/${recordId}/sign`, { body });
+    } catch (e) {
+      return toast(problemText(e), "fault");
+    }
+    reset({ password: "" });
+    toast("Report signed.", "pass");
+    router.refresh();
+  });
+  return (
+    <form className="flex items-end gap-2" onSubmit={sign} noValidate>
+      <div className="w-56">
+        <Input label="Your password, to sign" type="password" autoComplete="current-password" {...register("password")} error={fieldError(formState.errors, "password")} />
+      </div>
+      <Button type="submit" variant="secondary" disabled={!password || formState.isSubmitting}>
+        Sign the report
+      </Button>
+    </form>
   );
 }

@@ -5,14 +5,12 @@ import { useState } from "react";
 import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
-import { Dialog } from "@/components/ui/dialog";
-import { Input, Select } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { fetcher } from "@/lib/http/fetcher";
 import type { ReviewStatus } from "@/lib/reviews";
 import { problemText, sendJson } from "@/lib/http/client";
+import { CommentForm, SignDialog, type Act } from "./review-forms";
 
-type Act = "submit" | "approve" | "reject" | "withdraw" | null;
 const TONE = { draft: "neutral", submitted: "accent", approved: "pass", rejected: "fault", withdrawn: "caution" } as const;
 
 export function ReviewPanel({ record, isAuthor, mayDecide, maySubmit }: { record: { type: "fit" | "study"; id: number }; isAuthor: boolean; mayDecide: boolean; maySubmit: boolean }) {
@@ -20,46 +18,25 @@ export function ReviewPanel({ record, isAuthor, mayDecide, maySubmit }: { record
   const base = `/api/${record.type === "fit" ? "fits" : "studies"}/${record.id}`;
   const status = useSWR<ReviewStatus>(`${base}/review`, fetcher);
   const comments = useSWR<{ comments: Array<{ id: number; author: string; body: string; created_at: string }> }>(`${base}/comments`, fetcher);
-  const [act, setAct] = useState<Act>(null);
-  const [password, setPassword] = useState("");
-  const [reason, setReason] = useState("");
-  const [meaning, setMeaning] = useState<"approved" | "reviewed">("approved");
-  const [comment, setComment] = useState("");
-  const [busy, setBusy] = useState(false);
+  const [act, setAct] = useState<Act | null>(null);
 
   if (status.error) return <p role="alert" className="text-fault-700">The review status could not be loaded: {status.error.message}</p>;
   if (!status.data) return <div className="h-32 animate-pulse rounded-cell bg-paper-sunk" aria-label="Loading the review" />;
   const s = status.data;
 
-  async function send(url: string, body: unknown, done: string) {
-    setBusy(true);
+  const DONE: Record<string, string> = { submit: "Submitted for review, signed.", decision: "Signed.", withdraw: "Submission withdrawn.", comments: "Comment added." };
+  /** Sends a signed act or a comment; says what happened; refreshes the status and comments. */
+  async function send(url: string, body: unknown): Promise<boolean> {
     try {
       await sendJson(url, { body });
     } catch (e) {
       toast(problemText(e), "fault");
       return false;
-    } finally {
-      setBusy(false);
     }
-    toast(done, "pass");
+    const decided = (body as { decision?: string }).decision;
+    toast(decided === "approved" ? "Approved, signed." : decided === "rejected" ? "Rejected, signed." : (DONE[url.split("/").pop()!] ?? "Saved."), "pass");
     await Promise.all([status.mutate(), comments.mutate()]);
     return true;
-  }
-
-  async function confirm() {
-    const ok =
-      act === "submit"
-        ? await send(`${base}/submit`, { password }, "Submitted for review, signed.")
-        : act === "approve"
-          ? await send(`${base}/decision`, { decision: "approved", password, meaning }, "Approved, signed.")
-          : act === "reject"
-            ? await send(`${base}/decision`, { decision: "rejected", password, reason, meaning: "reviewed" }, "Rejected, signed.")
-            : await send(`${base}/withdraw`, { reason }, "Submission withdrawn.");
-    if (ok) {
-      setAct(null);
-      setPassword("");
-      setReason("");
-    }
   }
 
   return (
@@ -134,50 +111,9 @@ export function ReviewPanel({ record, isAuthor, mayDecide, maySubmit }: { record
           ))}
           {comments.data?.comments.length === 0 && <li className="text-ink-500">No comments.</li>}
         </ul>
-        <form
-          className="mt-2 flex flex-wrap items-end gap-2"
-          onSubmit={async (e) => {
-            e.preventDefault();
-            if (comment.trim() && (await send(`${base}/comments`, { body: comment }, "Comment added."))) setComment("");
-          }}
-        >
-          <div className="min-w-0 flex-1 basis-56">
-            <Input label="Add a comment" value={comment} onChange={(e) => setComment(e.target.value)} />
-          </div>
-          <Button type="submit" variant="secondary" disabled={!comment.trim() || busy}>
-            Comment
-          </Button>
-        </form>
+        <CommentForm base={base} send={send} />
       </div>
-      <Dialog open={act !== null} onClose={() => setAct(null)} title={act === "submit" ? "Submit for review" : act === "approve" ? "Approve this version" : act === "reject" ? "Reject this version" : "Withdraw the submission"}>
-        <form
-          method="post"
-          className="space-y-4"
-          onSubmit={(e) => {
-            e.preventDefault();
-            void confirm();
-          }}
-        >
-          {act !== "withdraw" && (
-            <p className="text-sm">
-              This is an electronic signature: it records your name, the time and its meaning, and binds them to this exact version. Enter your password to sign.
-            </p>
-          )}
-          {act === "approve" && (
-            <Select label="Meaning of the signature" value={meaning} onChange={(e) => setMeaning(e.target.value as "approved" | "reviewed")} options={[{ value: "approved", label: "Approved" }, { value: "reviewed", label: "Reviewed" }]} />
-          )}
-          {(act === "reject" || act === "withdraw") && <Input label="Reason (required)" value={reason} onChange={(e) => setReason(e.target.value)} required />}
-          {act !== "withdraw" && <Input label="Your password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} required />}
-          <div className="flex justify-end gap-2">
-            <Button variant="secondary" onClick={() => setAct(null)}>
-              Cancel
-            </Button>
-            <Button type="submit" disabled={busy || (act !== "withdraw" && !password) || ((act === "reject" || act === "withdraw") && reason.trim().length < 3)} data-testid="sign">
-              {act === "withdraw" ? "Withdraw" : "Sign"}
-            </Button>
-          </div>
-        </form>
-      </Dialog>
+      <SignDialog act={act} base={base} onClose={() => setAct(null)} send={send} />
     </section>
   );
 }

@@ -7,6 +7,8 @@ import { Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toast";
 import { fetcher } from "@/lib/http/fetcher";
 import { problemText, sendJson } from "@/lib/http/client";
+import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
+import { createShareSchema } from "@/lib/schemas/sharing";
 
 interface LinkRow {
   id: number;
@@ -21,20 +23,20 @@ export function ShareLinks({ record }: { record: { type: "fit" | "study"; id: nu
   const toast = useToast();
   const base = `/api/${record.type === "fit" ? "fits" : "studies"}/${record.id}/share`;
   const links = useSWR<{ links: LinkRow[] }>(base, fetcher);
-  const [recipient, setRecipient] = useState("");
   const [made, setMade] = useState<string | null>(null);
+  const { register, handleSubmit, reset, formState } = useSchemaForm<{ recipient: string }, typeof createShareSchema>((v) => ({ recipient: v.recipient.trim() || null }), createShareSchema, { recipient: "" });
 
-  async function make() {
+  const make = handleSubmit(async (body) => {
     let out: { url: string };
     try {
-      out = await sendJson<{ url: string }>(base, { body: { recipient: recipient.trim() || null } });
+      out = await sendJson<{ url: string }>(base, { body });
     } catch (e) {
       return toast(problemText(e), "fault");
     }
     setMade(out.url);
-    setRecipient("");
+    reset({ recipient: "" });
     await links.mutate();
-  }
+  });
   async function revoke(id: number) {
     try {
       await sendJson(`/api/share-links/${id}/revoke`);
@@ -49,14 +51,14 @@ export function ShareLinks({ record }: { record: { type: "fit" | "study"; id: nu
     <section className="rounded-cell bg-paper-raised p-5 shadow-lift" aria-label="Share links">
       <h2 className="text-lg font-semibold">Share this version</h2>
       <p className="text-sm text-ink-500">A link opens exactly this version, read-only, for signed-in members of the lab, for 14 days. Only its hash is stored.</p>
-      <div className="mt-3 flex flex-wrap items-end gap-2">
+      <form className="mt-3 flex flex-wrap items-end gap-2" onSubmit={make} noValidate>
         <div className="w-72">
-          <Input label="E-mail it to (optional)" type="email" value={recipient} onChange={(e) => setRecipient(e.target.value)} />
+          <Input label="E-mail it to (optional)" type="email" {...register("recipient")} error={fieldError(formState.errors, "recipient")} />
         </div>
-        <Button variant="secondary" onClick={make} data-testid="make-share">
+        <Button type="submit" variant="secondary" disabled={formState.isSubmitting} data-testid="make-share">
           Make a link
         </Button>
-      </div>
+      </form>
       {made && (
         <p className="mt-2 break-all rounded-cell bg-quartz-100 px-3 py-2 font-mono text-xs" data-testid="share-url">
           {made}
