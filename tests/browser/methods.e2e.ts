@@ -69,6 +69,7 @@ describe("methods and calibration", () => {
     await p.getByTestId("save-method").click();
     await p.getByText("The window must end after it starts.").first().waitFor();
     expect(p.url()).toMatch(/\/methods\/new$/);
+    await p.screenshot({ path: path.join(artifacts, "method-form-refused.png"), fullPage: true });
     await p.getByLabel("Window from (s)").fill("");
     await p.getByLabel("Window to (s)").fill("");
     await p.getByTestId("save-method").click();
