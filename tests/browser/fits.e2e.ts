@@ -87,7 +87,7 @@ describe("fitting workspace", () => {
     await page.getByRole("button", { name: "Exclude…" }).click();
     await page.getByLabel("Reason (required)").fill("air bubble seen in cell 1");
     await page.getByRole("button", { name: "Exclude", exact: true }).click();
-    await expect(page.getByTestId("exclusions").textContent()).resolves.toMatch(/#5 .*air bubble seen in cell 1/);
+    await expect.poll(() => page.getByTestId("exclusions").textContent()).toMatch(/#5 .*air bubble seen in cell 1/);
     await page.getByLabel("Fix A∞ at (measured)").fill("0.045");
     await page.getByLabel("Why this new version (required)").fill("bubble excluded; A∞ measured after 24 h");
     // A dropped connection: the page says nothing was saved and the Save button works again.
@@ -101,18 +101,18 @@ describe("fitting workspace", () => {
     await page.waitForURL(/\/fits\/\d+$/);
     const versions = page.getByTestId("versions");
     await versions.waitFor();
-    await expect(versions.textContent()).resolves.toMatch(/Version 2.*Why: bubble excluded; A∞ measured after 24 h.*point 5 excluded: “air bubble seen in cell 1”.*ainf fixed at 0\.045/s);
-    await expect(page.getByTestId("record-options").textContent()).resolves.toMatch(/Point 5 excluded: “air bubble seen in cell 1”/);
+    await expect.poll(() => versions.textContent()).toMatch(/Version 2.*Why: bubble excluded; A∞ measured after 24 h.*point 5 excluded: “air bubble seen in cell 1”.*ainf fixed at 0\.045/s);
+    await expect.poll(() => page.getByTestId("record-options").textContent()).toMatch(/Point 5 excluded: “air bubble seen in cell 1”/);
     // The plot the reviewer signs: data, the fitted curve and residuals, drawn on the server with axes and units; the
     // excluded point is drawn apart (an open ring).
     const plot = page.getByTestId("record-plot");
-    await expect(plot.locator("svg[role=img] title").textContent()).resolves.toMatch(/version 2: data, fitted curve and residuals/);
-    await expect(plot.locator("svg").textContent()).resolves.toMatch(/absorbance \(AU\).*residual.*t \((s|min)\)/s);
+    await expect.poll(() => plot.locator("svg[role=img] title").textContent()).toMatch(/version 2: data, fitted curve and residuals/);
+    await expect.poll(() => plot.locator("svg").textContent()).toMatch(/absorbance \(AU\).*residual.*t \((s|min)\)/s);
     expect(await plot.locator("svg polyline").count()).toBe(1);
     expect(await plot.locator("svg circle").count()).toBe(1);
-    await expect(plot.locator("figcaption").textContent()).resolves.toMatch(/1 outside the fit.*Nonlinear first order fit/);
+    await expect.poll(() => plot.locator("figcaption").textContent()).toMatch(/1 outside the fit.*Nonlinear first order fit/);
     // The record's audit events read as sentences: who did what to which version, and why.
-    await expect(page.getByTestId("record-audit").textContent()).resolves.toMatch(/saved a new version of fit record \d+ version 2, because: bubble excluded/);
+    await expect.poll(() => page.getByTestId("record-audit").textContent()).toMatch(/saved a new version of fit record \d+ version 2, because: bubble excluded/);
     await page.screenshot({ path: path.join(artifacts, "fit-record.png"), fullPage: true });
     // Printed, the record stands alone: the plot and the numbers, without the navigation or the controls.
     await page.emulateMedia({ media: "print" });
@@ -138,6 +138,6 @@ describe("fitting workspace", () => {
 
     await page.goto(`${baseURL}/fits`);
     const rowEl = page.getByRole("row", { name: /corvane-blue-25C · Cell 1/ });
-    await expect(rowEl.getByTestId("fit-version").textContent()).resolves.toBe("v2");
+    await expect.poll(() => rowEl.getByTestId("fit-version").textContent()).toBe("v2");
   });
 });

@@ -34,7 +34,7 @@ describe("each demo role", () => {
       const expected = AREAS.filter((a) => can({ userId: 0, role: u.role }, a.permission)).map((a) => a.label);
       expect(labels).toEqual(expected);
       expect(labels.length).toBeGreaterThan(0);
-      await expect(page.getByTestId("signed-in-name").textContent()).resolves.toBe(u.name);
+      await expect.poll(() => page.getByTestId("signed-in-name").textContent()).toBe(u.name);
       await page.screenshot({ path: path.join(artifacts, `home-${u.role}.png`), fullPage: true });
 
       // Areas outside the role answer 403 with a page that says so; those inside, 200. Every status is the real one,
@@ -60,7 +60,7 @@ describe("sign-in refusals", () => {
     await signIn(page, baseURL, analyst.email, "not-the-password");
     const alert = page.getByTestId("sign-in-error");
     await alert.waitFor();
-    expect(await alert.textContent()).toBe(WRONG_CREDENTIALS);
+    await expect.poll(() => alert.textContent()).toBe(WRONG_CREDENTIALS);
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     await page.screenshot({ path: path.join(artifacts, "sign-in-wrong-password.png") });
   });
@@ -74,11 +74,11 @@ describe("sign-in refusals", () => {
       await page.getByRole("button", { name: "Sign in" }).waitFor();
     }
     // The same words as any refused sign-in: an outsider cannot tell a locked account from an unknown e-mail.
-    expect(await page.getByTestId("sign-in-error").textContent()).toMatch(/sign-in is paused after 5 failed attempts in a row/);
+    await expect.poll(() => page.getByTestId("sign-in-error").textContent()).toMatch(/sign-in is paused after 5 failed attempts in a row/);
     await signIn(page, baseURL, probe.email, probe.password);
     const alert = page.getByTestId("sign-in-error");
     await alert.waitFor();
-    expect(await alert.textContent()).toMatch(/The e-mail or password is not right, or sign-in is paused/);
+    await expect.poll(() => alert.textContent()).toMatch(/The e-mail or password is not right, or sign-in is paused/);
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     await page.screenshot({ path: path.join(artifacts, "sign-in-locked.png") });
   });

@@ -41,7 +41,7 @@ describe("integrity", () => {
     await analyst.goto(`${baseURL}/fits/${fitId}`);
     const note = analyst.getByTestId("integrity");
     await expect.poll(() => note.getAttribute("data-ok")).toBe("true");
-    expect(await note.textContent()).toMatch(/Integrity verified/);
+    await expect.poll(() => note.textContent()).toMatch(/Integrity verified/);
     await admin.goto(`${baseURL}/admin/audit`);
     await admin.getByRole("button", { name: "Check integrity" }).click();
     await expect.poll(() => admin.getByTestId("integrity-result").textContent(), { timeout: 30_000 }).toMatch(/Integrity verified: \d+ audit rows and \d+ record versions recomputed/);
@@ -60,7 +60,7 @@ describe("integrity", () => {
     await analyst.goto(`${baseURL}/fits/${fitId}`);
     const note = analyst.getByTestId("integrity");
     await expect.poll(() => note.getAttribute("data-ok")).toBe("false");
-    expect(await note.textContent()).toMatch(/Tamper warning.*no longer give the version's content hash/s);
+    await expect.poll(() => note.textContent()).toMatch(/Tamper warning.*no longer give the version's content hash/s);
     await analyst.screenshot({ path: path.join(artifacts, "record-tamper-warning.png"), fullPage: true });
 
     await admin.goto(`${baseURL}/admin/audit`);

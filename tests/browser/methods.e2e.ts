@@ -49,7 +49,7 @@ describe("methods and calibration", () => {
     await p.getByTestId("save-calibration").click();
     await p.waitForURL(/\/methods\/calibrations\/\d+$/);
     await p.getByRole("heading", { name: "Larkspur blue standards, bench 2" }).waitFor();
-    expect(await p.getByTestId("cal-slope").textContent()).toMatch(/^0\.062/);
+    await expect.poll(() => p.getByTestId("cal-slope").textContent()).toMatch(/^0\.062/);
 
     await p.goto(`${baseURL}/methods/new`);
     await p.getByLabel("Method name").fill("Larkspur blue fade, bench 2");
@@ -74,10 +74,10 @@ describe("methods and calibration", () => {
     await p.getByLabel("Window to (s)").fill("");
     await p.getByTestId("save-method").click();
     await p.waitForURL(/\/methods\/\d+$/);
-    const criteria = await p.getByTestId("method-criteria").textContent();
-    expect(criteria).toContain("r² ≥ 0.9999");
-    expect(criteria).toContain("at least 20 points fitted");
-    expect(criteria).toContain("SE(k)/k ≤ 2 %");
+    const criteria = () => p.getByTestId("method-criteria").textContent();
+    await expect.poll(criteria).toContain("r² ≥ 0.9999");
+    await expect.poll(criteria).toContain("at least 20 points fitted");
+    await expect.poll(criteria).toContain("SE(k)/k ≤ 2 %");
     await p.screenshot({ path: path.join(artifacts, "method.png"), fullPage: true });
   });
 
@@ -93,21 +93,21 @@ describe("methods and calibration", () => {
     await p.getByTestId("fit-link").first().click();
     const panel = p.getByTestId("criteria-panel");
     await panel.waitFor();
-    expect(await panel.textContent()).toContain("Larkspur blue fade, bench 2");
+    await expect.poll(() => panel.textContent()).toContain("Larkspur blue fade, bench 2");
     const verdicts = async () => Object.fromEntries(await panel.locator("li[data-criterion]").evaluateAll((els) => els.map((e) => [e.getAttribute("data-criterion"), e.getAttribute("data-pass")])));
     await expect.poll(verdicts).toEqual({ r2_min: "false", min_points: "true", rel_se_k_max: "true" });
     // The fit was converted by the method's calibration: concentrations, not absorbance.
-    expect(await p.getByLabel(/Convert by calibration/).isChecked()).toBe(true);
+    await expect.poll(() => p.getByLabel(/Convert by calibration/).isChecked()).toBe(true);
     await p.screenshot({ path: path.join(artifacts, "fit-with-method.png"), fullPage: true });
     await p.getByTestId("save-fit").click();
     await p.waitForURL(/\/fits\/\d+$/);
     const rec = p.getByTestId("record-criteria");
     await rec.waitFor();
-    expect(await rec.textContent()).toMatch(/1 not met/);
-    expect(await rec.locator("tr[data-criterion='r2_min']").textContent()).toMatch(/fail/);
-    expect(await rec.locator("tr[data-criterion='min_points']").textContent()).toMatch(/pass/);
+    await expect.poll(() => rec.textContent()).toMatch(/1 not met/);
+    await expect.poll(() => rec.locator("tr[data-criterion='r2_min']").textContent()).toMatch(/fail/);
+    await expect.poll(() => rec.locator("tr[data-criterion='min_points']").textContent()).toMatch(/pass/);
     await p.goto(`${baseURL}/fits`);
-    expect(await p.getByTestId("fit-criteria").first().textContent()).toMatch(/not met|all met/);
+    await expect.poll(() => p.getByTestId("fit-criteria").first().textContent()).toMatch(/not met|all met/);
   });
 });
 
@@ -140,7 +140,7 @@ describe("administration", () => {
     await q.getByLabel("New password").fill("short");
     await q.getByLabel("The same password again").fill("short");
     await q.getByRole("button", { name: "Set password and sign in" }).click();
-    expect(await q.getByTestId("set-password-error").textContent()).toMatch(/at least 12 characters/);
+    await expect.poll(() => q.getByTestId("set-password-error").textContent()).toMatch(/at least 12 characters/);
     await q.getByLabel("New password").fill("heron-quartz-tide-2026");
     await q.getByLabel("The same password again").fill("heron-quartz-tide-2026");
     await q.getByRole("button", { name: "Set password and sign in" }).click();
@@ -151,7 +151,7 @@ describe("administration", () => {
     await q.screenshot({ path: path.join(artifacts, "invitee-signed-in.png"), fullPage: true });
     // The link works once.
     await q.goto(link.replace(/^https?:\/\/[^/]+/, baseURL));
-    expect(await q.getByTestId("invite-message").textContent()).toMatch(/used already/);
+    await expect.poll(() => q.getByTestId("invite-message").textContent()).toMatch(/used already/);
     await p.reload();
     await p.getByTestId("invitation-pia.ostrander@larkspur.example").getByText("accepted").waitFor();
     await p.screenshot({ path: path.join(artifacts, "members.png"), fullPage: true });

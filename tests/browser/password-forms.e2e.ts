@@ -43,7 +43,7 @@ describe("with scripts off", () => {
     await signIn(page, baseURL, analyst.email, "wrong-but-secret-9");
     await expect.poll(() => page.getByTestId("sign-in-error").textContent()).toBe(WRONG_CREDENTIALS);
     // The e-mail is kept, the password is not.
-    expect(await page.getByLabel("E-mail").inputValue()).toBe(analyst.email);
+    await expect.poll(() => page.getByLabel("E-mail").inputValue()).toBe(analyst.email);
 
     await page.goto(`${baseURL}/sign-in?next=/fits`);
     await page.getByLabel("E-mail").fill(analyst.email);
@@ -82,7 +82,7 @@ describe("with scripts off", () => {
     await page.getByLabel("The same password again").fill(INVITEE.password);
     await page.getByRole("button", { name: "Set password and sign in" }).click();
     await page.getByTestId("workspace-nav").waitFor();
-    expect(await page.getByTestId("signed-in-name").textContent()).toBe(INVITEE.name);
+    await expect.poll(() => page.getByTestId("signed-in-name").textContent()).toBe(INVITEE.name);
   });
 });
 

@@ -87,7 +87,7 @@ describe("review and sign-off", () => {
     await a.goto(fitUrl);
     const sigs = a.getByTestId("signatures");
     await sigs.getByText("Rafe Okonkwo").waitFor();
-    await expect(sigs.textContent()).resolves.toMatch(/Amara Quist · authored · .*UTC.*Rafe Okonkwo · approved · .*UTC/s);
+    await expect.poll(() => sigs.textContent()).toMatch(/Amara Quist · authored · .*UTC.*Rafe Okonkwo · approved · .*UTC/s);
     await a.screenshot({ path: path.join(artifacts, "fit-approved.png"), fullPage: true });
 
     // The PDF report carries the signature meaning, the name and the record's hash.

@@ -57,8 +57,8 @@ describe("upload, preview, map, save", () => {
 
     const semi = page.getByRole("article", { name: `File ${FILES[0]}` });
     await semi.getByText("Time (s);Abs").waitFor();
-    await expect(semi.getByLabel("Wavelength (nm)").inputValue()).resolves.toBe("590");
-    await expect(semi.getByLabel("Temperature (°C)").inputValue()).resolves.toBe("24.6");
+    await expect.poll(() => semi.getByLabel("Wavelength (nm)").inputValue()).toBe("590");
+    await expect.poll(() => semi.getByLabel("Temperature (°C)").inputValue()).toBe("24.6");
     await semi.getByLabel("Run name").fill("Crystal violet, semicolon export");
     await semi.getByLabel("Study").fill("Parser shapes");
     await semi.locator(".js-plotly-plot").first().waitFor();
@@ -68,7 +68,7 @@ describe("upload, preview, map, save", () => {
       const card = page.getByRole("article", { name: `File ${name}` });
       await card.getByTestId("save-run").click();
       await card.getByTestId("saved-note").waitFor();
-      await expect(card.getByTestId("saved-note").textContent()).resolves.toMatch(/Stored as run \d+/);
+      await expect.poll(() => card.getByTestId("saved-note").textContent()).toMatch(/Stored as run \d+/);
     }
   });
 
@@ -91,13 +91,13 @@ describe("upload, preview, map, save", () => {
     await dropFiles([FILES[1]!]);
     const note = page.getByTestId("duplicate-note");
     await note.waitFor();
-    await expect(note.textContent()).resolves.toMatch(/already stored as/);
+    await expect.poll(() => note.textContent()).toMatch(/already stored as/);
   });
 
   it("a refused file names the problem and the line", async () => {
     await dropFiles(["bad-half-number.csv"]);
     const err = page.getByRole("article", { name: "File bad-half-number.csv" }).getByTestId("upload-error");
     await err.waitFor();
-    await expect(err.textContent()).resolves.toMatch(/bad-half-number\.csv: line 4: "A" holds "0\.5x26", which is not a number/);
+    await expect.poll(() => err.textContent()).toMatch(/bad-half-number\.csv: line 4: "A" holds "0\.5x26", which is not a number/);
   });
 });

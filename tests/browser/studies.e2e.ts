@@ -33,16 +33,16 @@ describe("temperature study", () => {
     await page.waitForURL(/\/studies\/\d+$/);
     const ea = page.getByTestId("study-ea");
     await ea.waitFor();
-    await expect(ea.textContent()).resolves.toMatch(/Ea = \d+(\.\d+)? ± \d+(\.\d+)? kJ mol⁻¹/);
+    await expect.poll(() => ea.textContent()).toMatch(/Ea = \d+(\.\d+)? ± \d+(\.\d+)? kJ mol⁻¹/);
     await page.getByText(/95 % CI .* kJ mol⁻¹/).waitFor();
     await page.getByRole("figure", { name: /Arrhenius plot/ }).locator(".main-svg").first().waitFor();
     await page.getByRole("figure", { name: /Eyring plot/ }).locator(".main-svg").first().waitFor();
 
     await page.getByLabel("Target temperature (°C)").fill("25");
-    await expect(page.getByTestId("prediction").textContent()).resolves.toMatch(/t90 = .*\(95 % PI/);
-    await expect(page.getByTestId("caution").textContent()).resolves.toMatch(/qualified review.*local regulations/);
+    await expect.poll(() => page.getByTestId("prediction").textContent()).toMatch(/t90 = .*\(95 % PI/);
+    await expect.poll(() => page.getByTestId("caution").textContent()).toMatch(/qualified review.*local regulations/);
     await page.getByLabel("Target temperature (°C)").fill("5");
-    await expect(page.getByTestId("extrapolation").textContent()).resolves.toMatch(/outside the measured 25\.0–50\.0 °C/);
+    await expect.poll(() => page.getByTestId("extrapolation").textContent()).toMatch(/outside the measured 25\.0–50\.0 °C/);
     await page.screenshot({ path: path.join(artifacts, "study.png"), fullPage: true });
 
     await page.getByLabel("Temperature of corvane-blue-30C").fill("30.6");
@@ -50,7 +50,7 @@ describe("temperature study", () => {
     await page.getByLabel("Why this new version (required)").fill("temperature correction from the calibration certificate");
     await page.getByTestId("save-study").click();
     await page.getByText("Version 2 of 2").waitFor();
-    await expect(page.getByTestId("study-versions").textContent()).resolves.toMatch(/Version 2.*temperature correction from the calibration certificate/s);
+    await expect.poll(() => page.getByTestId("study-versions").textContent()).toMatch(/Version 2.*temperature correction from the calibration certificate/s);
     await page.getByText("block probe calibrated: 30.6 °C").waitFor();
   });
 
@@ -100,7 +100,7 @@ describe("temperature study", () => {
       await r.setViewportSize({ width: 390, height: 844 });
       await r.goto(`${baseURL}${linkPath}`);
       await r.getByTestId("share-banner").waitFor();
-      await expect(r.getByTestId("shared-study-results").textContent()).resolves.toMatch(/Ea = [\d.]+ ± [\d.]+ kJ mol⁻¹/);
+      await expect.poll(() => r.getByTestId("shared-study-results").textContent()).toMatch(/Ea = [\d.]+ ± [\d.]+ kJ mol⁻¹/);
       await expect(r.getByTestId("shared-arrhenius").locator("svg text").allTextContents()).resolves.toContain("1000 / T (K⁻¹)");
       await expect.poll(() => r.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(0);
       await r.screenshot({ path: path.join(artifacts, "study-share-at-390px.png"), fullPage: true });

@@ -42,7 +42,7 @@ describe("validation", () => {
     // The page showed the run's own count as it went (the job's progress, polled), not only a spinner.
     const seen = await page.evaluate(() => (window as unknown as { progressSeen: string[] }).progressSeen);
     expect(seen.some((t) => /^Reference problem \d+ of \d+/.test(t))).toBe(true);
-    await expect(page.getByTestId("validation-summary").textContent()).resolves.toMatch(/\d{3} passed, 0 failed/);
+    await expect.poll(() => page.getByTestId("validation-summary").textContent()).toMatch(/\d{3} passed, 0 failed/);
     expect(await page.getByTestId("validation-cases").locator("tr").count()).toBeGreaterThan(250);
     await page.getByLabel("Your password, to sign").fill(admin.password);
     await page.getByRole("button", { name: "Sign the report" }).click();
