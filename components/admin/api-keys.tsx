@@ -10,6 +10,7 @@ import { useToast } from "@/components/ui/toast";
 import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
 import { problemText, sendJson } from "@/lib/http/client";
 import { createApiKeySchema } from "@/lib/schemas/admin";
+import type { ApiKeyMade } from "@/lib/schemas/responses";
 
 interface Key {
   id: number;
@@ -27,9 +28,9 @@ export function ApiKeys({ keys }: { keys: Key[] }) {
   const [fresh, setFresh] = useState<{ name: string; key: string } | null>(null);
   const { register, handleSubmit, reset, formState } = useSchemaForm<{ name: string }, typeof createApiKeySchema>((v) => v, createApiKeySchema, { name: "" });
   const create = handleSubmit(async (body) => {
-    let out: { name: string; key: string };
+    let out: ApiKeyMade;
     try {
-      out = await sendJson<{ name: string; key: string }>("/api/admin/api-keys", { body });
+      out = await sendJson<ApiKeyMade>("/api/admin/api-keys", { body });
     } catch (e) {
       return toast(problemText(e), "fault");
     }

@@ -9,6 +9,7 @@ import { Table, Td, Th } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
 import { problemText, sendJson } from "@/lib/http/client";
 import { inviteSchema } from "@/lib/schemas/admin";
+import type { InvitationSent } from "@/lib/schemas/responses";
 
 interface InviteValues {
   email: string;
@@ -37,9 +38,9 @@ export function Invitations({ invitations, roles }: { invitations: Invitation[];
   const roleLabel = (r: string) => roles.find((x) => x.value === r)?.label ?? r;
 
   const invite = handleSubmit(async (body) => {
-    let out: { mailed: boolean };
+    let out: InvitationSent;
     try {
-      out = await sendJson<{ mailed: boolean }>("/api/admin/invitations", { body });
+      out = await sendJson<InvitationSent>("/api/admin/invitations", { body });
     } catch (e) {
       return toast(problemText(e), "fault");
     }

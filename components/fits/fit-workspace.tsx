@@ -26,6 +26,7 @@ import { FitPlots } from "./fit-plots";
 import { ExclusionsPanel, RatePanel, SavePanel } from "./fit-side-panels";
 import { buildFitOptions, fitReducer, initialFitState } from "./fit-state";
 import { useSeriesFit } from "./use-fit";
+import type { SavedVersion } from "@/lib/schemas/responses";
 
 const CURVE_MODELS = new Set(MODELS.filter((m) => m.family !== "straight-line").map((m) => m.id));
 
@@ -107,9 +108,9 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
 
   async function save() {
     setSaving(true);
-    let body: { id: number; version: number; unchanged?: boolean };
+    let body: SavedVersion;
     try {
-      body = await sendJson<{ id: number; version: number; unchanged?: boolean }>("/api/fits", { body: { runId: run.id, seriesId: series.id, title: s.title, options, ...(from ? { previousId: from.id, reason: s.saveReason } : {}) } });
+      body = await sendJson<SavedVersion>("/api/fits", { body: { runId: run.id, seriesId: series.id, title: s.title, options, ...(from ? { previousId: from.id, reason: s.saveReason } : {}) } });
     } catch (e) {
       toast(problemText(e), "fault");
       return;

@@ -12,6 +12,7 @@ import { CalibrationEntry } from "./calibration-entry";
 import { CalibrationPlots } from "./calibration-plots";
 import { CalibrationResult } from "./calibration-result";
 import { calibrationBody, calibrationReducer, computeCalibration, initialCalibrationState, type SavedCalibration } from "./calibration-state";
+import type { Created } from "@/lib/schemas/responses";
 
 export function CalibrationWorkbench({ saved, canSave }: { saved?: SavedCalibration; canSave: boolean }) {
   const router = useRouter();
@@ -23,9 +24,9 @@ export function CalibrationWorkbench({ saved, canSave }: { saved?: SavedCalibrat
 
   async function save() {
     setSaving(true);
-    let body: { id: number };
+    let body: Created;
     try {
-      body = await sendJson<{ id: number }>("/api/calibrations", { body: calibrationBody(s, standards) });
+      body = await sendJson<Created>("/api/calibrations", { body: calibrationBody(s, standards) });
     } catch (e) {
       toast(problemText(e), "fault");
       return;

@@ -16,6 +16,7 @@ import { problemLines, sendJson } from "@/lib/http/client";
 import { fieldError, formMessages } from "@/components/forms/schema-form";
 import type { MethodDefinition } from "@/lib/schemas/methods";
 import { CRITERIA, formPath, METHOD_MODELS, methodFormDefaults, methodFormSchema, type MethodFormValues } from "./method-form-values";
+import type { SavedVersion } from "@/lib/schemas/responses";
 
 type Body = z.output<ReturnType<typeof methodFormSchema>>;
 
@@ -56,9 +57,9 @@ export function MethodForm({
 
   const save = handleSubmit(
     async (body) => {
-      let out: { id: number; version: number };
+      let out: SavedVersion;
       try {
-        out = await sendJson<{ id: number; version: number }>(versionOf ? `/api/methods/${versionOf.id}` : "/api/methods", { body });
+        out = await sendJson<SavedVersion>(versionOf ? `/api/methods/${versionOf.id}` : "/api/methods", { body });
       } catch (e) {
         const list = problemLines(e, /^definition\./);
         setError("root.server", { message: list.join(" · ") });

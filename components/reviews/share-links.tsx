@@ -9,6 +9,7 @@ import { fetcher } from "@/lib/http/fetcher";
 import { problemText, sendJson } from "@/lib/http/client";
 import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
 import { createShareSchema } from "@/lib/schemas/sharing";
+import type { ShareLinkMade } from "@/lib/schemas/responses";
 
 interface LinkRow {
   id: number;
@@ -27,9 +28,9 @@ export function ShareLinks({ record }: { record: { type: "fit" | "study"; id: nu
   const { register, handleSubmit, reset, formState } = useSchemaForm<{ recipient: string }, typeof createShareSchema>((v) => ({ recipient: v.recipient.trim() || null }), createShareSchema, { recipient: "" });
 
   const make = handleSubmit(async (body) => {
-    let out: { url: string };
+    let out: ShareLinkMade;
     try {
-      out = await sendJson<{ url: string }>(base, { body });
+      out = await sendJson<ShareLinkMade>(base, { body });
     } catch (e) {
       return toast(problemText(e), "fault");
     }

@@ -11,6 +11,7 @@ import { useWatch } from "react-hook-form";
 import { fieldError, useSchemaForm } from "@/components/forms/schema-form";
 import { problemText, sendJson } from "@/lib/http/client";
 import { assignMethodSchema } from "@/lib/schemas/methods";
+import type { MethodAssigned } from "@/lib/schemas/responses";
 
 interface Values {
   methodId: string;
@@ -45,9 +46,9 @@ export function RunMethod({
   const mismatch = mismatchOf(choice);
   const err = (path: keyof Values) => fieldError(formState.errors, path);
   const assign = handleSubmit(async (body) => {
-    let out: { method: { name: string; version: number } | null };
+    let out: MethodAssigned;
     try {
-      out = await sendJson<{ method: { name: string; version: number } | null }>(`/api/runs/${runId}/method`, { body });
+      out = await sendJson<MethodAssigned>(`/api/runs/${runId}/method`, { body });
     } catch (e) {
       toast(problemText(e), "fault");
       return;

@@ -9,6 +9,7 @@ import { useToast } from "@/components/ui/toast";
 import { formatWithUncertainty } from "@/lib/format/number";
 import { problemText, sendJson } from "@/lib/http/client";
 import { createStudySchema } from "@/lib/schemas/studies";
+import type { Created } from "@/lib/schemas/responses";
 
 interface FitChoice {
   id: number;
@@ -40,9 +41,9 @@ export function NewStudyForm({ fits }: { fits: FitChoice[] }) {
 
   const submit = handleSubmit(
     async (body) => {
-      let out: { id: number };
+      let out: Created;
       try {
-        out = await sendJson<{ id: number }>("/api/studies", { body });
+        out = await sendJson<Created>("/api/studies", { body });
       } catch (e) {
         return toast(problemText(e), "fault");
       }

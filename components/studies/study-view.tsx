@@ -20,6 +20,7 @@ import { PredictionPanel } from "./prediction-panel";
 import { RatePlots } from "./rate-plots";
 import { StudyResults } from "./study-results";
 import { initialStudyEdits, studyChangeBody, studyEditReducer, studyPrediction } from "./study-state";
+import type { SavedVersion } from "@/lib/schemas/responses";
 
 export function StudyView({
   study,
@@ -67,9 +68,9 @@ export function StudyView({
 
   async function saveChange() {
     setBusy(true);
-    let out: { id: number; version: number };
+    let out: SavedVersion;
     try {
-      out = await sendJson<{ id: number; version: number }>(`/api/studies/${study.id}`, { body: studyChangeBody(study, edits, candidates) });
+      out = await sendJson<SavedVersion>(`/api/studies/${study.id}`, { body: studyChangeBody(study, edits, candidates) });
     } catch (e) {
       return toast(problemText(e), "fault");
     } finally {
