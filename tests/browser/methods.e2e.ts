@@ -166,6 +166,17 @@ describe("administration", () => {
     await p.goto(`${baseURL}/admin/settings`);
     await p.getByLabel(/Share links may be sent to outside reviewers/).check();
     await p.getByLabel("Why this change (required)").fill("partner QA reviews the corvane study");
+    // A form on the route's schema: a password rule the route refuses is shown on its field before anything is sent,
+    // and a dropped connection is said in words with the Save button usable again.
+    await p.getByLabel("Passwords at least (characters)").fill("8");
+    await p.getByRole("button", { name: "Save settings" }).click();
+    await p.getByText("Passwords shorter than 10 characters are not allowed here.").first().waitFor();
+    await p.getByLabel("Passwords at least (characters)").fill("12");
+    await p.route("**/api/admin/settings", (route) => (route.request().method() === "PUT" ? route.abort("connectionreset") : route.continue()));
+    await p.getByRole("button", { name: "Save settings" }).click();
+    await p.getByText("The server could not be reached, so nothing was saved.").first().waitFor();
+    await expect.poll(() => p.getByRole("button", { name: "Save settings" }).isEnabled()).toBe(true);
+    await p.unroute("**/api/admin/settings");
     await p.getByRole("button", { name: "Save settings" }).click();
     await p.getByText("Settings saved").waitFor();
     const a = pages.analyst!;
