@@ -35,7 +35,7 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
   const [onlyFailed, setOnlyFailed] = useState(false);
   // The queued run is watched until it ends (its row holds the progress the server writes as it goes).
   const { data } = useSWR<{ job: JobView }>(jobId ? `/api/jobs/${jobId}` : null, fetcher, {
-    refreshInterval: (d) => (d && (d.job.state === "done" || d.job.state === "failed") ? 0 : 500),
+    refreshInterval: (d) => (d && (d.job.state === "done" || d.job.state === "failed") ? 0 : 250),
     onSuccess: ({ job: j }) => {
       if (j.state === "done") {
         const out = j.result as { id: number; passed: number; failed: number; all_passed: boolean; seconds: number };

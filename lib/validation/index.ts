@@ -223,6 +223,8 @@ export function runValidation(opts: { referenceDir?: string; onProgress?: (done:
   });
 
   const cases: ValidationCase[] = [];
+  // The count is known before the first problem runs: the page shows "0 of N" at once, then each one done.
+  opts.onProgress?.(0, tasks.length, tasks[0]?.id ?? "");
   tasks.forEach((task, i) => {
     try {
       cases.push(...task.run());
