@@ -36,6 +36,9 @@ export function ValidationWorkspace({ runs, record, active }: { runs: RunRow[]; 
   // The queued run is watched until it ends (its row holds the progress the server writes as it goes).
   const { data } = useSWR<{ job: JobView }>(jobId ? `/api/jobs/${jobId}` : null, fetcher, {
     refreshInterval: (d) => (d && (d.job.state === "done" || d.job.state === "failed") ? 0 : 250),
+    // SWR folds requests within its deduping interval (2 s by default) into one, polls included: a run shorter than
+    // that would show no progress at all.
+    dedupingInterval: 0,
     onSuccess: ({ job: j }) => {
       if (j.state === "done") {
         const out = j.result as { id: number; passed: number; failed: number; all_passed: boolean; seconds: number };
