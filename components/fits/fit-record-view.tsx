@@ -57,7 +57,7 @@ export async function FitRecordView({ user, labId: labIdGiven, id, banner }: { u
               PDF report
             </a>
             {can(user, "fit:write") && newest.id === rec.id && (
-              <Link className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-3 text-sm font-semibold text-white" href={`/runs/${rec.run.id}/series/${rec.series.id}/fit?from=${rec.id}`}>
+              <Link className={buttonLinkClass("primary", "md", "px-3 text-sm")} href={`/runs/${rec.run.id}/series/${rec.series.id}/fit?from=${rec.id}`}>
                 Change (new version)
               </Link>
             )}

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { buttonLinkClass } from "@/components/ui/button";
 import { MethodList } from "@/components/methods/lists";
 import { MethodsNav } from "@/components/methods/methods-nav";
 import { PageHeader } from "@/components/shell/page-header";
@@ -20,7 +21,7 @@ export default async function MethodsPage({ searchParams }: { searchParams: Prom
       <PageHeader
         title="Methods"
         lede="How each kind of run must be evaluated: wavelength, concentration from ε or a calibration, models, window and the acceptance criteria every fit is judged against."
-        actions={can(user, "method:write") ? <Link href="/methods/new" className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-4 font-semibold text-white hover:bg-quartz-600">New method</Link> : undefined}
+        actions={can(user, "method:write") ? <Link href="/methods/new" className={buttonLinkClass("primary")}>New method</Link> : undefined}
       />
       <MethodsNav current="methods" />
       <MethodList rows={list.rows} state={{ total: list.total, page: q.page, pageSize: q.pageSize, sort: q.sort, dir: q.dir, q: q.q }} />

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { buttonLinkClass } from "@/components/ui/button";
 import { RunsTable } from "@/components/runs/runs-table";
 import { PageHeader } from "@/components/shell/page-header";
 import { requirePageUser } from "@/lib/auth/page";
@@ -16,7 +17,7 @@ export default async function RunsPage() {
         lede="Each uploaded export, kept byte for byte with its SHA-256, and the channels read from it."
         actions={
           can(user, "run:upload") ? (
-            <Link href="/runs/new" className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-4 font-semibold text-white hover:bg-quartz-600">
+            <Link href="/runs/new" className={buttonLinkClass("primary")}>
               Upload exports
             </Link>
           ) : null

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { buttonLinkClass } from "@/components/ui/button";
 import { CalibrationList } from "@/components/methods/lists";
 import { MethodsNav } from "@/components/methods/methods-nav";
 import { PageHeader } from "@/components/shell/page-header";
@@ -20,7 +21,7 @@ export default async function CalibrationsPage({ searchParams }: { searchParams:
       <PageHeader
         title="Methods"
         lede="Calibration curves: standards, the line through them with its uncertainties, and the limits of detection and quantitation."
-        actions={can(user, "calibration:write") ? <Link href="/methods/calibrations/new" className="inline-flex h-10 items-center rounded-cell bg-quartz-700 px-4 font-semibold text-white hover:bg-quartz-600">New calibration</Link> : undefined}
+        actions={can(user, "calibration:write") ? <Link href="/methods/calibrations/new" className={buttonLinkClass("primary")}>New calibration</Link> : undefined}
       />
       <MethodsNav current="calibrations" />
       <CalibrationList rows={list.rows} state={{ total: list.total, page: q.page, pageSize: q.pageSize, sort: q.sort, dir: q.dir, q: q.q }} />
