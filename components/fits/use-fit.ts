@@ -3,13 +3,15 @@
 // where workers are unavailable). A newer option cancels the fit under way: that worker is ended and a new one takes
 // the series and the newest options. The last result stays on screen, marked as re-fitting, until the new one lands.
 import { useEffect, useMemo, useRef, useState } from "react";
-import * as mathjs from "mathjs";
 import { provideMathjs } from "@/lib/kinetics/formula";
 import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import { fitDisplay, type FitDisplay, type SlimOutcome } from "./fit-display";
 
-// Where workers are unavailable the page fits itself, formulas included.
-provideMathjs(mathjs);
+const needsFormula = (o: SeriesFitOptions) => o.models.includes("formula");
+/** mathjs is fetched the first time a formula is fitted on the page (where workers are unavailable). */
+async function loadFormula(): Promise<void> {
+  provideMathjs(await import("mathjs"));
+}
 
 type Result = { outcome: SlimOutcome; display: FitDisplay; ms: number | null; where: "worker" | "page" };
 
@@ -25,7 +27,7 @@ export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions
   const yArr = useMemo(() => Float64Array.from(y), [y]);
   const hasWorker = typeof Worker !== "undefined";
   const [state, setState] = useState<Result | null>(() => {
-    if (hasWorker) return null;
+    if (hasWorker || needsFormula(options)) return null;
     return fitOnPage(tArr, yArr, options);
   });
   const [busy, setBusy] = useState(hasWorker);
@@ -37,8 +39,10 @@ export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions
     const parsed = JSON.parse(key) as SeriesFitOptions;
     const id = ++seq.current;
     if (typeof Worker === "undefined") {
-      const r = fitOnPage(tArr, yArr, parsed);
-      queueMicrotask(() => setState(r));
+      void (needsFormula(parsed) ? loadFormula() : Promise.resolve()).then(() => {
+        const r = fitOnPage(tArr, yArr, parsed);
+        if (id === seq.current) setState(r);
+      });
       return;
     }
     // A worker still fitting older options is ended (cancelled), not waited for.

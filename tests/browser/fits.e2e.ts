@@ -61,6 +61,15 @@ describe("fitting workspace", () => {
     await page.screenshot({ path: path.join(artifacts, "fit-workspace-units.png"), fullPage: true });
     await page.getByLabel("Show times in minutes and k per minute (stored in seconds)").uncheck();
     for (const [model, param, unit] of expected) await expect.poll(async () => (await unitOf(model, param).textContent())?.trim(), { message: `${model} ${param}` }).toBe(unit);
+    // An own formula: the formula engine is fetched by the fitting worker on first use (not with the page), and the
+    // formula's rate constant agrees with the built-in first-order fit of the same data (same model, other start).
+    await page.getByLabel("Own formula").check();
+    await page.getByLabel("Formula in t (seconds)").fill("a*exp(-k*t) + c");
+    await page.getByLabel("Start values (advanced)").fill("k=0.002, a=7, c=1.5");
+    const kOf = (model: string) => page.locator(`td[data-model="${model}"][data-param="k"]`).first().textContent();
+    await expect.poll(() => kOf("formula"), { timeout: 30_000 }).toMatch(/±/);
+    const lead = (t: string | null) => Number((t ?? "").trim().split(/\s/)[0]);
+    await expect.poll(async () => Math.abs(lead(await kOf("formula")) / lead(await kOf("first-order")) - 1)).toBeLessThan(1e-3);
   });
 
   it("the fitting window is typed in the page's time unit, and points outside it are drawn apart from excluded ones", async () => {
