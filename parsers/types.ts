@@ -1,14 +1,17 @@
 // The one domain type every parser produces; raw row types never leave parsers/.
 import type { Quantity } from "@/lib/units";
 
+/** A column of numbers as a parser hands it over. */
+export type Readings = number[] | Float64Array;
+
 export interface ParsedSeries {
   name: string;
   quantity: Quantity;
   /** Unit of y as stored: "AU" for absorbance (also after %T conversion), else as written. */
   unit: string;
-  /** Seconds. */
-  t: number[];
-  y: number[];
+  /** Seconds. The byte-level reader writes Float64Arrays (channels of one table may share their times); the others arrays. */
+  t: Readings;
+  y: Readings;
   /** 1-based file line numbers whose cell in this series was empty or not a number (over-range markers). */
   skipped_lines: number[];
   /** Per-channel numbers read from the header, e.g. { wavelength_nm: 590 }. */

@@ -99,6 +99,10 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
   }
 
   const excluded = useMemo(() => new Set(s.exclusions.map((e) => e.index)), [s.exclusions]);
+  // One function while the conversion is the same (the plots keep their traces until it changes).
+  const conversionKey = JSON.stringify(options.conversion ?? null);
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed by the conversion's content, not its identity
+  const conv = useMemo(() => (options.conversion ? (v: number) => convertReading(v, options.conversion!) : (v: number) => v), [conversionKey]);
   function onPointClick(index: number) {
     if (excluded.has(index)) {
       dispatch({ type: "restore", index });
@@ -162,7 +166,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           tScale={tScale}
           yLabel={outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`}
           colour={solutionColour(run.wavelength_nm).hex}
-          conv={(v) => (options.conversion ? convertReading(v, options.conversion) : v)}
+          conv={conv}
           window={{ from: parseDecimalField(s.windowFrom), to: parseDecimalField(s.windowTo) }}
           tangent={rate?.line ?? null}
           selected={s.selected}

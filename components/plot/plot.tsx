@@ -1,7 +1,7 @@
 "use client";
 // The one plotting component: react-plotly.js over plotly.js-dist-min (through the factory), loaded in the browser only.
 import dynamic from "next/dynamic";
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type { PlotParams } from "react-plotly.js";
 
 const Plotly = dynamic(
@@ -33,6 +33,7 @@ function useNearViewport<T extends Element>(): [React.RefObject<T | null>, boole
   return [ref, near];
 }
 
+const CONFIG: PlotParams["config"] = { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d"] };
 const FONT = { family: "var(--hl-font-sans), system-ui, sans-serif", size: 12, color: "#3a4457" };
 
 export function Plot({
@@ -51,6 +52,22 @@ export function Plot({
   onSelected?: PlotParams["onSelected"];
 }) {
   const [ref, near] = useNearViewport<HTMLElement>();
+  // Same identity while the caller's layout is the same (react-plotly.js redraws on any new layout or data object).
+  const fullLayout = useMemo(
+    () => ({
+      autosize: true,
+      height,
+      margin: { l: 56, r: 16, t: 30, b: 44 },
+      paper_bgcolor: "rgba(0,0,0,0)",
+      plot_bgcolor: "#ffffff",
+      font: FONT,
+      legend: { orientation: "h" as const, x: 0, y: 1.0, yanchor: "bottom" as const },
+      xaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.xaxis },
+      yaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.yaxis },
+      ...layout,
+    }),
+    [layout, height],
+  );
   return (
     <figure ref={ref} aria-label={label} className="w-full" style={{ height }}>
       {!near ? (
@@ -58,19 +75,8 @@ export function Plot({
       ) : (
         <Plotly
           data={data}
-          layout={{
-            autosize: true,
-            height,
-            margin: { l: 56, r: 16, t: 30, b: 44 },
-            paper_bgcolor: "rgba(0,0,0,0)",
-            plot_bgcolor: "#ffffff",
-            font: FONT,
-            legend: { orientation: "h", x: 0, y: 1.0, yanchor: "bottom" },
-            xaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.xaxis },
-            yaxis: { gridcolor: "#eceae3", zeroline: false, ...layout?.yaxis },
-            ...layout,
-          }}
-          config={{ displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d"] }}
+          layout={fullLayout}
+          config={CONFIG}
           onClick={onClick}
           onSelected={onSelected}
           useResizeHandler

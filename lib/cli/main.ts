@@ -70,8 +70,9 @@ export function seriesForCli(p: ParsedExport) {
       quantity: s.quantity === "transmittance-converted absorbance" ? "absorbance" : s.quantity,
       ...(s.quantity === "transmittance-converted absorbance" ? { converted_from: "%T" } : {}),
       unit: s.unit,
-      t: s.t,
-      y: s.y,
+      // Plain arrays in the JSON (the byte-level reader hands over Float64Arrays, which JSON writes as objects).
+      t: Array.from(s.t),
+      y: Array.from(s.y),
       skipped_lines: s.skipped_lines,
       ...(s.metadata ? { metadata: s.metadata } : {}),
     })),

@@ -47,6 +47,20 @@ async function readExport(bytes: Uint8Array, fileName: string, mapping: Pick<Run
   return { ...parsed, ranking: r.ranking };
 }
 
+export type ReadExport = Awaited<ReturnType<typeof readExport>>;
+
+/**
+ * Starts reading an export on the job pool now, for a caller with other work to do meanwhile (the command line opens
+ * and migrates its database while the file is parsed), to hand to `ingestExport` as `parsing`. The server's size limit
+ * is checked first; the lab's is checked again by `ingestExport` before the result is used.
+ */
+export function startReadExport(bytes: Uint8Array, fileName: string, mapping: Pick<RunMapping, "parser" | "timeColumn"> = {}): Promise<ReadExport> {
+  checkSize(fileName, bytes.length);
+  const parsing = readExport(bytes, fileName, mapping);
+  parsing.catch(() => {}); // answered where it is awaited; an unused one (the file was stored before) is not an error
+  return parsing;
+}
+
 /** The lab's upload limit (lab settings), never above the server's own. */
 export async function uploadLimitBytes(db: Knex | Knex.Transaction, labId: number): Promise<number> {
   const mb = (await getLabSettingsRow(db, labId))?.upload_limit_mb;
@@ -174,7 +188,7 @@ export interface IngestResult {
  */
 export async function ingestExport(
   db: Knex,
-  input: { labId: number; userId: number | null; actorLabel?: string; bytes: Uint8Array; fileName: string; mapping?: RunMapping; now?: Date },
+  input: { labId: number; userId: number | null; actorLabel?: string; bytes: Uint8Array; fileName: string; mapping?: RunMapping; now?: Date; parsing?: Promise<ReadExport> },
 ): Promise<IngestResult> {
   const mapping: RunMapping = input.mapping ?? { run: {} };
   checkSize(input.fileName, input.bytes.length, await uploadLimitBytes(db, input.labId));
@@ -184,7 +198,7 @@ export async function ingestExport(
     const series = await listSeriesOfRun(db, input.labId, existing.id);
     return { run_id: existing.id, raw_file_sha256: sha256, existing: true, series: series.map((s) => ({ id: s.id, name: s.name, points: s.point_count })) };
   }
-  const parsed = await readExport(input.bytes, input.fileName, mapping);
+  const parsed = await (input.parsing ?? readExport(input.bytes, input.fileName, mapping));
   const stored = applyMapping(parsed, mapping, input.fileName);
   const at = (input.now ?? new Date()).toISOString();
   const r = mapping.run ?? {};

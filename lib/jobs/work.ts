@@ -7,7 +7,7 @@ import { drawFitReport } from "@/lib/reports/fit-pdf";
 import { drawStudyReport } from "@/lib/reports/study-pdf";
 import type { FitReportData, StudyReportData } from "@/lib/reports/records";
 import { drawValidationReport } from "@/lib/reports/validation-pdf";
-import { parseExport, ParseError, rankParsers, type ParsedExport, type ParsedSeries } from "@/parsers";
+import { parseExport, ParseError, rankParsers, type ParsedExport, type ParsedSeries, type Readings } from "@/parsers";
 
 /** A parsed series whose times and readings cross threads as Float64Arrays (moved, not copied). */
 export type PackedSeries = Omit<ParsedSeries, "t" | "y"> & { t: Float64Array; y: Float64Array };
@@ -42,7 +42,8 @@ export const WORK: { [K in JobKind]: (input: JobTypes[K]["input"], progress: Pro
     const ranking = rankParsers(bytes, fileName).map((r) => ({ name: r.parser.name, confidence: r.confidence }));
     const r = parseExport(bytes, fileName, parser, { timeColumn });
     if (r instanceof ParseError) return { parsed: null, error: { message: r.message, reason: r.reason, line: r.line }, ranking };
-    return { parsed: { ...r, series: r.series.map((s) => ({ ...s, t: Float64Array.from(s.t), y: Float64Array.from(s.y) })) }, error: null, ranking };
+    const packed = (a: Readings) => (a instanceof Float64Array ? a : Float64Array.from(a));
+    return { parsed: { ...r, series: r.series.map((s) => ({ ...s, t: packed(s.t), y: packed(s.y) })) }, error: null, ranking };
   },
 };
 

@@ -19,7 +19,7 @@ function outcome(bytes: Uint8Array, fast: boolean): Outcome {
   }
 }
 
-const bits = (a: number[]) => Buffer.from(Float64Array.from(a).buffer).toString("hex");
+const bits = (a: ArrayLike<number>) => Buffer.from(Float64Array.from(a).buffer).toString("hex");
 
 function expectSame(bytes: Uint8Array, label: string) {
   const fast = outcome(bytes, true);
@@ -153,6 +153,24 @@ describe("long generated tables", () => {
     expect(takes(bytes)).toBe(false);
     expectSame(bytes, "trailing lines");
     expect(parseDelimitedText(bytes).warnings.join(" ")).toMatch(/2 line\(s\) after the table were not read/);
+  });
+});
+
+describe("what the byte-level reader hands over", () => {
+  it("each column is one Float64Array of exactly its length (no trailing slack), the channels of a table sharing their times", () => {
+    for (const tail of ["\n", "", "\r\n"]) {
+      const rows = Array.from({ length: 1000 }, (_, i) => `${i * 2},${1 - i / 2000},${i / 1000}`).join(tail === "\r\n" ? "\r\n" : "\n");
+      const bytes = enc(`Time (s),A (A),B (A)${tail === "\r\n" ? "\r\n" : "\n"}${rows}${tail}`);
+      expect(takes(bytes)).toBe(true);
+      const [a, b] = parseDelimitedText(bytes).series;
+      for (const s of [a!, b!]) {
+        expect(s.t).toBeInstanceOf(Float64Array);
+        expect(s.y).toBeInstanceOf(Float64Array);
+        expect([s.t.length, s.y.length, (s.y as Float64Array).buffer.byteLength]).toEqual([1000, 1000, 8000]);
+      }
+      expect(a!.t).toBe(b!.t);
+      expect([a!.t[999], a!.y[999], b!.y[999]]).toEqual([1998, 1 - 999 / 2000, 0.999]);
+    }
   });
 });
 

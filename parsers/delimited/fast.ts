@@ -139,8 +139,15 @@ function scanRows(bytes: Uint8Array, pos: number, found: FoundTable, plan: Table
   channels.forEach(({ i }, q) => (channelOf[i] = q));
   const percentT = kinds.map((k) => k.percentT);
   const maxRows = Math.floor(PARSE_LIMITS.maxPoints / channels.length);
-  const t: number[] = [];
-  const ys = channels.map(() => [] as number[]);
+  // Rows are lines from here on: counted first (a native byte search), so every column is one Float64Array of its
+  // final length from the start, with no growing arrays and no copy at the end.
+  let lines = 0;
+  for (let q = bytes.indexOf(NL, pos); q !== -1; q = bytes.indexOf(NL, q + 1)) lines++;
+  if (bytes[bytes.length - 1] !== NL) lines++;
+  if (lines > maxRows) return null;
+  const t = new Float64Array(lines);
+  const ys = channels.map(() => new Float64Array(lines));
+  let count = 0;
   const row = new Float64Array(width);
   const n = bytes.length;
   let line = found.first; // 0-based index of the line being read
@@ -228,9 +235,9 @@ function scanRows(bytes: Uint8Array, pos: number, found: FoundTable, plan: Table
     line++;
     if (line > PARSE_LIMITS.maxLines) return null;
     const tv = row[timeCol]! * unitFactor;
-    if (tv < prevT || t.length >= maxRows) return null;
+    if (tv < prevT || count >= lines) return null;
     prevT = tv;
-    t.push(tv);
+    t[count] = tv;
     for (let c = 0; c < width; c++) {
       const q = channelOf[c]!;
       if (q < 0) continue;
@@ -239,13 +246,17 @@ function scanRows(bytes: Uint8Array, pos: number, found: FoundTable, plan: Table
         if (!(y > 0)) return null;
         y = percentTToAbsorbance(y);
       }
-      ys[q]!.push(y);
+      ys[q]![count] = y;
     }
+    count++;
   }
-  if (t.length === 0) return null;
+  if (count === 0) return null;
+  const cut = (a: Float64Array) => (count === lines ? a : a.slice(0, count));
+  const times = cut(t);
   return {
-    ts: channels.map((_, q) => (q === 0 ? t : t.slice())),
-    ys,
+    // One array of times for every channel of the table (they are the same readings of the same clock).
+    ts: channels.map(() => times),
+    ys: ys.map(cut),
     skipped: channels.map(() => []),
     why: channels.map(() => ({ empty: [], over: [], nonPositiveT: [], text: [] })),
   };

@@ -5,7 +5,7 @@ import { percentTToAbsorbance, timeUnitFactor, type Quantity } from "@/lib/units
 import { readMetadata } from "../metadata";
 import { PARSE_LIMITS } from "../limits";
 import { decodeText, readNumber, splitLines } from "../text";
-import { ParseError, type ParsedExport, type ParsedSeries, type ParseOptions } from "../types";
+import { ParseError, type ParsedExport, type ParsedSeries, type ParseOptions, type Readings } from "../types";
 import { classifyTime, timeReader, type TimeReader } from "./time";
 import { readPlainTable } from "./fast";
 
@@ -268,8 +268,8 @@ function planColumns(found: FoundTable, firstRow: string[], options: ParseOption
 
 /** The typed table: each channel's times and readings, and the lines whose cell was skipped (with why). */
 export interface TypedRows {
-  ts: number[][];
-  ys: number[][];
+  ts: Readings[];
+  ys: Readings[];
   skipped: number[][];
   why: Array<{ empty: number[]; over: Array<[number, string]>; nonPositiveT: number[]; text: Array<[number, string]> }>;
 }

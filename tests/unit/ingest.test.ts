@@ -8,7 +8,7 @@ import { countIngestRows } from "@/db/queries/runs";
 import { seedDemoWhenEmpty } from "@/db/seeds/demo";
 import type { SignedInUser } from "@/lib/auth/sign-in";
 import { verifyAuditChain } from "@/lib/audit";
-import { ingestExport, INGEST_LIMITS, sha256Hex } from "@/lib/ingest";
+import { ingestExport, INGEST_LIMITS, sha256Hex, startReadExport } from "@/lib/ingest";
 import { readSeries } from "@/lib/runs";
 import { failInserts, freshDb, signInAs } from "./../helpers/db";
 
@@ -132,6 +132,28 @@ describe("preview and store", () => {
     // JSON of every point is no longer offered: the display view is bounded.
     const big = await GET(new Request(`http://halflight.test/api/runs/${r.run_id}/series/${r.series[0]!.id}?maxPoints=2000000`), ctx({ id: String(r.run_id), sid: String(r.series[0]!.id) }));
     expect(big.status).toBe(422);
+  });
+
+  it("a parse started before the database is ready (the command line's way) stores the same series; refused input is still refused with its line", async () => {
+    // Three channels of one table: the byte-level reader gives them one array of times; each is stored as its own BLOB.
+    const lines = ["Time (s),A (A),B (A),C (A)"];
+    for (let i = 0; i < 2000; i++) lines.push(`${i},${(1 - i / 4000).toFixed(5)},${(0.5 + i / 8000).toFixed(5)},${(i % 7) / 10}`);
+    const bytes = new TextEncoder().encode(lines.join("\n") + "\n");
+    const parsing = startReadExport(bytes, "three.csv");
+    const r = await ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes, fileName: "three.csv", parsing });
+    expect(r.series.map((s) => [s.name, s.points])).toEqual([["A (A)", 2000], ["B (A)", 2000], ["C (A)", 2000]]);
+    for (const [k, s] of r.series.entries()) {
+      const { t, y } = await readSeries(db, analyst.labId, r.run_id, s.id);
+      expect(t[1999]).toBe(1999);
+      expect(y[1999]).toBe(k === 0 ? Number((1 - 1999 / 4000).toFixed(5)) : k === 1 ? Number((0.5 + 1999 / 8000).toFixed(5)) : (1999 % 7) / 10);
+    }
+    // The same file again: the stored run, whatever the early parse gave.
+    const again = await ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes, fileName: "three.csv", parsing: startReadExport(bytes, "three.csv") });
+    expect(again).toMatchObject({ existing: true, run_id: r.run_id });
+    const before = await countIngestRows(db);
+    const bad = new TextEncoder().encode("Time (s),A\n0,1\n1,0.5\n2,oops\n3,\n4,zz,9\n");
+    await expect(ingestExport(db, { labId: analyst.labId, userId: analyst.userId, bytes: bad, fileName: "bad.csv", parsing: startReadExport(bad, "bad.csv") })).rejects.toThrow(/bad\.csv: line 6/);
+    expect(await countIngestRows(db)).toEqual(before);
   });
 
   it("subtracts a blank channel at equal times and records it", async () => {
