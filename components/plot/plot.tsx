@@ -1,16 +1,21 @@
 "use client";
-// The one plotting component: react-plotly.js over plotly.js-dist-min (through the factory), loaded in the browser only.
-import dynamic from "next/dynamic";
-import { useEffect, useMemo, useRef, useState } from "react";
+// The one plotting component: react-plotly.js over plotly.js-dist-min (through the factory), loaded in the browser only
+// (from an effect: never on the server).
+import { useEffect, useMemo, useRef, useState, type ComponentType } from "react";
+import { flushSync } from "react-dom";
 import type { PlotParams } from "react-plotly.js";
 
-const Plotly = dynamic(
-  async () => {
-    const [{ default: createPlotlyComponent }, plotly] = await Promise.all([import("react-plotly.js/factory"), import("plotly.js-dist-min")]);
-    return createPlotlyComponent(plotly.default ?? plotly);
-  },
-  { ssr: false, loading: () => <div className="h-full w-full animate-pulse rounded-cell bg-paper-sunk" aria-label="Loading plot" /> },
-);
+type PlotComponent = ComponentType<PlotParams>;
+let plotComponent: PlotComponent | null = null;
+let loading: Promise<PlotComponent> | null = null;
+/** plotly (about 3.5 MB of script) is fetched on the first plot that comes near the viewport, once per page. */
+function loadPlotComponent(): Promise<PlotComponent> {
+  loading ??= Promise.all([import("react-plotly.js/factory"), import("plotly.js-dist-min")]).then(([{ default: createPlotlyComponent }, plotly]) => {
+    plotComponent = createPlotlyComponent((plotly as { default?: object }).default ?? plotly) as PlotComponent;
+    return plotComponent;
+  });
+  return loading;
+}
 
 /**
  * True once the element has come within a screen of the viewport (and from then on): plots below the fold are not
@@ -33,6 +38,21 @@ function useNearViewport<T extends Element>(): [React.RefObject<T | null>, boole
   return [ref, near];
 }
 
+/**
+ * The figure to draw, taken up in a task of its own (a zero-delay timeout rendered at once with flushSync): when a fit
+ * changes every plot on a page, each plotly redraw is then a separate main-thread task instead of one long one, and
+ * input can be handled between them. The flag is true while a newer figure waits (the figure is aria-busy meanwhile).
+ */
+function useFigureInOwnTask<T>(figure: T): [T, boolean] {
+  const [drawn, setDrawn] = useState(figure);
+  useEffect(() => {
+    if (drawn === figure) return;
+    const id = setTimeout(() => flushSync(() => setDrawn(figure)), 0);
+    return () => clearTimeout(id);
+  }, [figure, drawn]);
+  return [drawn, drawn !== figure];
+}
+
 const CONFIG: PlotParams["config"] = { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["lasso2d"] };
 const FONT = { family: "var(--hl-font-sans), system-ui, sans-serif", size: 12, color: "#3a4457" };
 
@@ -52,6 +72,20 @@ export function Plot({
   onSelected?: PlotParams["onSelected"];
 }) {
   const [ref, near] = useNearViewport<HTMLElement>();
+  // Each plot mounts in a task of its own once plotly has loaded (not every plot of the page in one long task).
+  const [Plotly, setPlotly] = useState<PlotComponent | null>(() => plotComponent);
+  useEffect(() => {
+    if (!near || Plotly) return;
+    let live = true;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    void loadPlotComponent().then((C) => {
+      if (live) timer = setTimeout(() => live && flushSync(() => setPlotly(() => C)), 0);
+    });
+    return () => {
+      live = false;
+      clearTimeout(timer);
+    };
+  }, [near, Plotly]);
   // Same identity while the caller's layout is the same (react-plotly.js redraws on any new layout or data object).
   const fullLayout = useMemo(
     () => ({
@@ -68,14 +102,17 @@ export function Plot({
     }),
     [layout, height],
   );
+  const [figure, pending] = useFigureInOwnTask(useMemo(() => ({ data, layout: fullLayout }), [data, fullLayout]));
   return (
-    <figure ref={ref} aria-label={label} className="w-full" style={{ height }}>
+    <figure ref={ref} aria-label={label} aria-busy={pending} className="w-full" style={{ height }}>
       {!near ? (
         <div className="h-full w-full rounded-cell bg-paper-sunk" aria-hidden="true" />
+      ) : !Plotly ? (
+        <div className="h-full w-full animate-pulse rounded-cell bg-paper-sunk" aria-label="Loading plot" />
       ) : (
         <Plotly
-          data={data}
-          layout={fullLayout}
+          data={figure.data}
+          layout={figure.layout}
           config={CONFIG}
           onClick={onClick}
           onSelected={onSelected}

@@ -7,6 +7,15 @@ import type { DbRawFileRow, DbRunRow, DbSeriesRow } from "@/db/tables";
 
 const LITTLE_ENDIAN = new Uint8Array(new Float64Array([1]).buffer)[7] === 0x3f;
 
+/**
+ * The same bytes as packF64 without copying a Float64Array on a little-endian machine: for a caller that owns the
+ * array and hands it straight to the insert (ingest; bench ingest: a million points are 8 MB not held twice).
+ */
+export function ownedF64(values: ArrayLike<number>): Buffer {
+  if (LITTLE_ENDIAN && values instanceof Float64Array) return Buffer.from(values.buffer, values.byteOffset, values.byteLength);
+  return packF64(values);
+}
+
 export function packF64(values: ArrayLike<number>): Buffer {
   const a = values instanceof Float64Array ? values : Float64Array.from(values);
   const buf = Buffer.from(a.buffer, a.byteOffset, a.byteLength);

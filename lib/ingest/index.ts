@@ -1,7 +1,7 @@
 // Ingest: the raw file's SHA-256, the parser's choice, the column mapping, and the one transaction that stores raw file,
 // run, series and audit event together (or nothing at all).
 import type { Knex } from "knex";
-import { findRawFileBySha, findRunsOfRawFile, insertRawFile, insertRun, insertSeries, listSeriesOfRun, packF64 } from "@/db/queries/runs";
+import { findRawFileBySha, findRunsOfRawFile, insertRawFile, insertRun, insertSeries, listSeriesOfRun, ownedF64 } from "@/db/queries/runs";
 import { getLabSettingsRow } from "@/db/queries/admin";
 import { newestMethodVersion } from "@/db/queries/methods";
 import { recordAudit } from "@/lib/audit";
@@ -250,8 +250,9 @@ export async function ingestExport(
         quantity: s.quantity,
         unit: s.unit,
         point_count: s.t.length,
-        t_f64: packF64(s.t),
-        y_f64: packF64(s.y),
+        // The arrays are this ingest's own (from the parsing worker or the blank subtraction): no second copy.
+        t_f64: ownedF64(s.t),
+        y_f64: ownedF64(s.y),
         skipped_lines: JSON.stringify(s.series.skipped_lines),
         processing: JSON.stringify({ ...s.processing, ...(s.series.metadata ? { channel_metadata: s.series.metadata } : {}) }),
         t_min: s.t.length ? s.t[0]! : null,
