@@ -22,17 +22,34 @@ export interface FitDisplay {
 /** The outcome without its full-length curves (what crosses to the page beside the display). */
 export type SlimOutcome = Omit<SeriesFitOutcome, "curves" | "linearized_view"> & { linearized_view: { line: NonNullable<SeriesFitOutcome["linearized_view"]>["line"] } | null };
 
+/** The decimated subset of the points at `idx` (indices into the series). */
+function thinIndices(t: ArrayLike<number>, y: ArrayLike<number>, idx: number[]): number[] {
+  const ts = new Float64Array(idx.length),
+    ys = new Float64Array(idx.length);
+  idx.forEach((i, j) => ((ts[j] = t[i]!), (ys[j] = y[i]!)));
+  return decimateIndices(ts, ys, PLOT_COLUMNS).map((j) => idx[j]!);
+}
+
+/**
+ * What the page draws while its first fit is being computed: the points by kind, as the fit will take them (inside
+ * the window, not excluded: the rule of `fitSeriesWithOptions`), and no curves yet. The page is usable meanwhile.
+ */
+export function pointsDisplay(t: ArrayLike<number>, y: ArrayLike<number>, excluded: ReadonlySet<number>, window: { from?: number | null; to?: number | null } = {}): FitDisplay {
+  const from = window.from ?? -Infinity,
+    to = window.to ?? Infinity;
+  const inc: number[] = [],
+    ex: number[] = [],
+    out: number[] = [];
+  for (let i = 0; i < t.length; i++) (excluded.has(i) ? ex : t[i]! >= from && t[i]! <= to ? inc : out).push(i);
+  return { shown: { inc: thinIndices(t, y, inc), ex, out: thinIndices(t, y, out), total: t.length }, curves: {}, linear: null };
+}
+
 export function fitDisplay(outcome: SeriesFitOutcome, t: ArrayLike<number>, y: ArrayLike<number>, excluded: ReadonlySet<number>): { outcome: SlimOutcome; display: FitDisplay } {
   const inc: number[] = [],
     ex: number[] = [],
     out: number[] = [];
   for (let i = 0; i < t.length; i++) (outcome.included[i] ? inc : excluded.has(i) ? ex : out).push(i);
-  const thin = (idx: number[]) => {
-    const ts = new Float64Array(idx.length),
-      ys = new Float64Array(idx.length);
-    idx.forEach((i, j) => ((ts[j] = t[i]!), (ys[j] = y[i]!)));
-    return decimateIndices(ts, ys, PLOT_COLUMNS).map((j) => idx[j]!);
-  };
+  const thin = (idx: number[]) => thinIndices(t, y, idx);
   const curves: FitDisplay["curves"] = {};
   for (const [model, c] of Object.entries(outcome.curves)) {
     curves[model] = { fitted: decimate(c.t, c.fitted, PLOT_COLUMNS), residuals: decimate(c.t, c.residuals, PLOT_COLUMNS / 2) };

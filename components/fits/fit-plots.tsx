@@ -13,7 +13,8 @@ const colourOf = (i: number) => CHANNEL_PALETTE[(i + 1) % CHANNEL_PALETTE.length
 
 export function FitPlots(props: {
   points: Series;
-  outcome: SlimOutcome;
+  /** Null while the first fit is being computed: the points are drawn, the curves follow. */
+  outcome: SlimOutcome | null;
   display: FitDisplay;
   curveModels: ReadonlySet<string>;
   tScale: number;
@@ -31,11 +32,11 @@ export function FitPlots(props: {
   const { shown } = display;
   const tLabel = tScale === 60 ? "t (min)" : "t (s)";
   const thinned = shown.inc.length + shown.out.length + shown.ex.length < shown.total;
-  const linearView = outcome.linearized_view;
+  const linearView = outcome?.linearized_view ?? null;
   const { from, to } = props.window;
   // Traces and layouts keep their identity until what they show changes: every new identity makes plotly redraw and
   // restyle every marker, so a re-render for anything else (the busy flag, a typed field) must not hand it new arrays.
-  const fitted = useMemo(() => outcome.models.filter((m) => curveModels.has(m.model) && m.result.converged), [outcome, curveModels]);
+  const fitted = useMemo(() => (outcome?.models ?? []).filter((m) => curveModels.has(m.model) && m.result.converged), [outcome, curveModels]);
   const mainData = useMemo(() => {
     const scale = { t: tScale, y: conv };
     return [
@@ -104,16 +105,13 @@ export function FitPlots(props: {
       <section className="grid gap-4 lg:grid-cols-2">
         <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
           <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Residuals</h2>
-          <Plot
-            label="Residuals per model"
-            height={220}
-            data={residualData}
-            layout={residualLayout}
-          />
+          {outcome ? <Plot label="Residuals per model" height={220} data={residualData} layout={residualLayout} /> : <FirstFitPending />}
         </div>
         <div className="rounded-cell bg-paper-raised p-4 shadow-lift">
           <h2 className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-700">Linearized view</h2>
-          {linearData ? (
+          {!outcome ? (
+            <FirstFitPending />
+          ) : linearData ? (
             <Plot label="ln|y − A∞| against time" height={220} data={linearData} layout={linearLayout} />
           ) : (
             <p className="text-sm text-ink-500">Add the linearized first-order model to see ln|y − A∞| against t.</p>
@@ -122,4 +120,8 @@ export function FitPlots(props: {
       </section>
     </>
   );
+}
+
+function FirstFitPending() {
+  return <div className="flex h-[220px] items-center justify-center rounded-cell bg-paper-sunk text-sm text-ink-500">Shown once the first fit is in.</div>;
 }

@@ -22,6 +22,7 @@ import { ComparisonTable } from "./comparison-table";
 import { CriteriaPanel } from "./criteria-panel";
 import { ExclusionDialog } from "./exclusion-dialog";
 import { FitControls } from "./fit-controls";
+import { pointsDisplay } from "./fit-display";
 import { FitPlots } from "./fit-plots";
 import { ExclusionsPanel, RatePanel, SavePanel } from "./fit-side-panels";
 import { buildFitOptions, fitReducer, initialFitState } from "./fit-state";
@@ -42,8 +43,8 @@ interface Props {
 }
 
 interface Points {
-  t: number[];
-  y: number[];
+  t: Float64Array;
+  y: Float64Array;
 }
 
 export function FitWorkspace(props: Props) {
@@ -142,18 +143,14 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
     const yAt = modelById("first-order")!.curve!(Float64Array.of(tAt), p)[0]!;
     return { model, data, line: { x: [tAt - span * 2, tAt + span * 2], y: [yAt + model * span * 2, yAt - model * span * 2] } };
   }, [s.rateAt, outcome, tScale, points]);
-  if (!outcome || !result) {
-    return (
-      <div className="space-y-4" aria-label="Fitting the series" aria-busy="true" data-testid="first-fit">
-        <p className="text-sm text-ink-700">Fitting {points.t.length.toLocaleString("en")} points in a background worker…</p>
-        <div className="h-80 animate-pulse rounded-cell bg-paper-sunk" />
-        <div className="h-40 animate-pulse rounded-cell bg-paper-sunk" />
-      </div>
-    );
-  }
-  const { ms, where, display } = result;
-  const yUnit = fitUnits(outcome.quantity, options.conversion).y;
-  const verdict = method ? evaluateCriteria(outcome, method.criteria, method.models) : null;
+  // Until the first fit lands (seconds at a million points) the page is already usable: the points are drawn as that
+  // fit will take them, and every control works (a change starts the fit over with the new options).
+  const winFrom = options.window?.from ?? null,
+    winTo = options.window?.to ?? null;
+  const pendingDisplay = useMemo(() => (result ? null : pointsDisplay(points.t, points.y, excluded, { from: winFrom, to: winTo })), [result, points, excluded, winFrom, winTo]);
+  const display = result?.display ?? pendingDisplay!;
+  const yUnit = fitUnits(outcome?.quantity ?? (options.conversion ? "concentration" : "absorbance"), options.conversion).y;
+  const verdict = method && outcome ? evaluateCriteria(outcome, method.criteria, method.models) : null;
 
   return (
     <div className="grid gap-6 xl:grid-cols-[1fr_22rem]">
@@ -164,7 +161,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           display={display}
           curveModels={CURVE_MODELS}
           tScale={tScale}
-          yLabel={outcome.quantity !== "concentration" ? `A (${yUnit})` : `c (${yUnit})`}
+          yLabel={!options.conversion ? `A (${yUnit})` : `c (${yUnit})`}
           colour={solutionColour(run.wavelength_nm).hex}
           conv={conv}
           window={{ from: parseDecimalField(s.windowFrom), to: parseDecimalField(s.windowTo) }}
@@ -174,10 +171,16 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           dispatch={dispatch}
           onPointClick={onPointClick}
         />
-        <ComparisonTable outcome={outcome} perMinute={s.perMinute} yUnit={yUnit} stale={stale} />
+        {outcome && result ? (
+          <ComparisonTable outcome={outcome} perMinute={s.perMinute} yUnit={yUnit} stale={stale} />
+        ) : (
+          <section className="rounded-cell bg-paper-raised p-4 text-sm text-ink-700 shadow-lift" aria-label="Fitting the series" aria-busy="true" data-testid="first-fit">
+            Fitting {points.t.length.toLocaleString("en")} points in a background worker… The points are drawn above; the models&apos; numbers, curves and residuals follow.
+          </section>
+        )}
         <p className="text-xs text-ink-500">
-          Fitted in your browser by {engineVersion} ({where === "worker" ? "in a background worker" : "on the page"}{ms !== null ? `, ${ms.toFixed(0)} ms` : ""}
-          {stale ? ", re-fitting…" : ""}); saving re-runs the same engine on the server and stores its numbers. Shelf-life or release decisions built on
+          Fitted in your browser by {engineVersion}
+          {result ? ` (${result.where === "worker" ? "in a background worker" : "on the page"}${result.ms !== null ? `, ${result.ms.toFixed(0)} ms` : ""}${stale ? ", re-fitting…" : ""})` : ""}; saving re-runs the same engine on the server and stores its numbers. Shelf-life or release decisions built on
           these numbers are for qualified review under your lab&apos;s SOPs and local regulations.
         </p>
       </div>
@@ -185,7 +188,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
       <aside className="space-y-5" aria-label="Fit controls">
         {method && verdict && <CriteriaPanel method={method} verdict={verdict} />}
         <FitControls state={s} dispatch={dispatch} onModels={setModelList} />
-        <RatePanel state={s} dispatch={dispatch} rate={rate} yUnit={yUnit} />
+        {outcome && <RatePanel state={s} dispatch={dispatch} rate={rate} yUnit={yUnit} />}
         <ExclusionsPanel state={s} dispatch={dispatch} t={points.t} excluded={excluded} />
         {canSave ? <SavePanel state={s} dispatch={dispatch} from={from} saving={saving} onSave={save} /> : <p className="text-sm text-ink-500">Your role can look at fits but not save them.</p>}
       </aside>

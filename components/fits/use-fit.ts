@@ -2,7 +2,7 @@
 // The workspace's fits: computed only in a Web Worker (the main thread stays free for the page; it fits itself only
 // where workers are unavailable). A newer option cancels the fit under way: that worker is ended and a new one takes
 // the series and the newest options. The last result stays on screen, marked as re-fitting, until the new one lands.
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { provideMathjs } from "@/lib/kinetics/formula";
 import { fitSeriesWithOptions, type SeriesFitOptions } from "@/lib/kinetics/workspace";
 import { fitDisplay, type FitDisplay, type SlimOutcome } from "./fit-display";
@@ -22,9 +22,7 @@ function fitOnPage(t: Float64Array, y: Float64Array, options: SeriesFitOptions):
   return { ...r, ms: performance.now() - started, where: "page" };
 }
 
-export function useSeriesFit(t: number[], y: number[], options: SeriesFitOptions) {
-  const tArr = useMemo(() => Float64Array.from(t), [t]);
-  const yArr = useMemo(() => Float64Array.from(y), [y]);
+export function useSeriesFit(tArr: Float64Array, yArr: Float64Array, options: SeriesFitOptions) {
   const hasWorker = typeof Worker !== "undefined";
   const [state, setState] = useState<Result | null>(() => {
     if (hasWorker || needsFormula(options)) return null;

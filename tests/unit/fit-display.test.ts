@@ -2,7 +2,7 @@
 // point kept apart, excluded points all drawn, curves decimated by the one decimator, and nothing of full length left
 // in what crosses to the page. Invented trace (a smooth decay; only the bookkeeping is checked).
 import { describe, expect, it } from "vitest";
-import { fitDisplay, PLOT_COLUMNS } from "@/components/fits/fit-display";
+import { fitDisplay, PLOT_COLUMNS, pointsDisplay } from "@/components/fits/fit-display";
 import { fitSeriesWithOptions } from "@/lib/kinetics/workspace";
 import { decimate } from "@/lib/plot/decimate";
 
@@ -32,5 +32,15 @@ describe("fitDisplay", () => {
     expect(outcome).not.toHaveProperty("curves");
     expect(outcome.linearized_view).toEqual({ line: full.linearized_view!.line });
     expect(outcome.models).toBe(full.models);
+  });
+
+  it("before the first fit lands, the points are drawn as that fit will take them, without curves", () => {
+    const before = pointsDisplay(t, y, new Set([9_000, 9_001]), options.window);
+    expect(before.shown).toEqual(display.shown);
+    expect([before.curves, before.linear]).toEqual([{}, null]);
+    // No window, no exclusions: every point is a fitted one.
+    const all = pointsDisplay(t, y, new Set());
+    expect([all.shown.ex, all.shown.out, all.shown.total]).toEqual([[], [], n]);
+    expect(all.shown.inc[0]).toBe(0);
   });
 });

@@ -3,6 +3,7 @@
 // the parsed reply.
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { FetchError, problemLines, problemText, sendJson } from "@/lib/http/client";
+import { seriesPointsFetcher } from "@/lib/http/fetcher";
 
 afterEach(() => vi.unstubAllGlobals());
 
@@ -32,5 +33,23 @@ describe("sendJson", () => {
     expect(problemText(e)).toMatch(/could not be reached, so nothing was saved/);
     vi.stubGlobal("fetch", async () => new Response("<html>bad gateway</html>", { status: 502 }));
     await expect(sendJson("/api/fits", { method: "DELETE" })).rejects.toMatchObject({ status: 502, message: "The server answered 502." });
+  });
+});
+
+describe("seriesPointsFetcher", () => {
+  afterEach(() => vi.unstubAllGlobals());
+  it("reads n little-endian float64 times then n readings, exactly, and refuses a body cut short", async () => {
+    // The layout the points route writes (checked against the stored BLOBs in ingest.test.ts).
+    const t = [0, 0.1, 1e-300, 12345.678901234567];
+    const y = [0.95, -0, 5e-324, 1.7976931348623157e308];
+    const body = Buffer.alloc(64);
+    [...t, ...y].forEach((v, i) => body.writeDoubleLE(v, 8 * i));
+    vi.stubGlobal("fetch", async () => new Response(new Uint8Array(body), { headers: { "x-series-points": "4" } }));
+    const got = await seriesPointsFetcher("/api/runs/1/series/1/points");
+    expect(Array.from(got.t)).toEqual(t);
+    expect(Array.from(got.y)).toEqual(y);
+    expect(Object.is(got.y[1], -0)).toBe(true);
+    vi.stubGlobal("fetch", async () => new Response(new Uint8Array(body.subarray(0, 56)), { headers: { "x-series-points": "4" } }));
+    await expect(seriesPointsFetcher("/x")).rejects.toThrow(/cut short \(56 bytes for 4 points\)/);
   });
 });
