@@ -97,7 +97,7 @@ describe("npm start after npm prune --omit=dev", () => {
   });
 
   it("the command line runs from its compiled bundle without tsx: a first-order fit of a fixture", () => {
-    const r = execFileSync(process.execPath, ["lib/cli/launch.mjs", "fit", "parsers/delimited/fixtures/cv-iso.csv", "--model", "first-order", "--json"], { cwd: app, encoding: "utf8", env: { PATH: process.env.PATH!, HOME: dir } });
+    const r = execFileSync(process.execPath, ["lib/cli/launch.mjs", "fit", "parsers/delimited/fixtures/cv-iso.csv", "--model", "first-order", "--json"], { cwd: app, encoding: "utf8", env: { PATH: process.env.PATH!, HOME: dir } as unknown as NodeJS.ProcessEnv });
     const fit = JSON.parse(r) as { model: string; converged: boolean; parameters: Array<{ name: string; value: number }> };
     expect(fit).toMatchObject({ model: "first-order", converged: true });
     expect(fit.parameters.find((p) => p.name === "k")!.value).toBeGreaterThan(0);
