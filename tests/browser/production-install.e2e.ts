@@ -28,14 +28,24 @@ function freePort(): Promise<number> {
   });
 }
 
+/** A copy by hard links (instant, no space), or a plain copy where the temporary folder is on another file system. */
+function copyTree(from: string, to: string): void {
+  try {
+    execFileSync("cp", ["-al", from, to], { stdio: "pipe" });
+  } catch {
+    fs.rmSync(to, { recursive: true, force: true });
+    execFileSync("cp", ["-a", "--reflink=auto", from, to], { stdio: "pipe" });
+  }
+}
+
 beforeAll(async () => {
   fs.mkdirSync(app);
   for (const name of fs.readdirSync(root)) {
     if ([".git", "node_modules", "tests", "data"].includes(name) || name.endsWith(".tsbuildinfo")) continue;
     if (name === "package.json" || name === "package-lock.json") fs.copyFileSync(path.join(root, name), path.join(app, name));
-    else execFileSync("cp", ["-al", path.join(root, name), path.join(app, name)]);
+    else copyTree(path.join(root, name), path.join(app, name));
   }
-  execFileSync("cp", ["-al", path.join(root, "node_modules"), path.join(app, "node_modules")]);
+  copyTree(path.join(root, "node_modules"), path.join(app, "node_modules"));
   fs.rmSync(path.join(app, "node_modules", ".package-lock.json"), { force: true }); // npm rewrites it; not a shared inode
   execFileSync("npm", ["prune", "--omit=dev", "--offline", "--no-audit", "--no-fund"], { cwd: app, stdio: "pipe", env: { ...process.env, npm_config_loglevel: "error" } });
 
