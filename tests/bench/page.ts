@@ -81,8 +81,13 @@ export async function benchPage(): Promise<void> {
       const changeTasks = await longTasks(page);
       const max = (xs: number[]) => (xs.length ? Math.max(...xs).toFixed(0) : "none over 50");
       console.log(`  ${s.n.toLocaleString("en").padStart(9)} points: usable (points drawn, controls working) ${usableMs} ms, first fit shown ${firstFit} ms (longest main-thread task ${max(loadTasks)} ms, ${loadTasks.filter((d) => d > 100).length} over 100 ms); changed option shown ${changed} ms (longest task ${max(changeTasks)} ms)`);
+      const verdict = (ok: boolean) => (ok ? "met" : "NOT met");
+      const longest = Math.max(0, ...loadTasks, ...changeTasks);
+      if (s.n === 100_000)
+        console.log(`      targets at 100k: no main-thread task over 100 ms: ${verdict(longest <= 100)} (${longest.toFixed(0)} ms); a changed option within 500 ms: ${verdict(changed <= 500)}`);
+      if (s.n === 1_000_000) console.log(`      target at 1M: usable within 2 s: ${verdict(usableMs <= 2000)}`);
     }
-    console.log("  targets: 100k: no task over 100 ms, a changed option within 500 ms; 1M: usable within 2 s");
+    console.log("  (a task over 100 ms on loading is plotly's own module evaluation, ~3.5 MB of script in one task; DEVELOPERS.md)");
   } finally {
     await close();
     await srv.stop();
