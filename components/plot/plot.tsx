@@ -74,13 +74,20 @@ export function Plot({
   const [ref, near] = useNearViewport<HTMLElement>();
   // Each plot mounts in a task of its own once plotly has loaded (not every plot of the page in one long task).
   const [Plotly, setPlotly] = useState<PlotComponent | null>(() => plotComponent);
+  const [failed, setFailed] = useState(false);
   useEffect(() => {
     if (!near || Plotly) return;
     let live = true;
     let timer: ReturnType<typeof setTimeout> | undefined;
-    void loadPlotComponent().then((C) => {
-      if (live) timer = setTimeout(() => live && flushSync(() => setPlotly(() => C)), 0);
-    });
+    loadPlotComponent().then(
+      (C) => {
+        if (live) timer = setTimeout(() => live && flushSync(() => setPlotly(() => C)), 0);
+      },
+      () => {
+        loading = null; // a later plot (or a reload) tries again
+        if (live) setFailed(true);
+      },
+    );
     return () => {
       live = false;
       clearTimeout(timer);
@@ -107,6 +114,10 @@ export function Plot({
     <figure ref={ref} aria-label={label} aria-busy={pending} className="w-full" style={{ height }}>
       {!near ? (
         <div className="h-full w-full rounded-cell bg-paper-sunk" aria-hidden="true" />
+      ) : failed && !Plotly ? (
+        <div className="flex h-full w-full items-center justify-center rounded-cell bg-paper-sunk text-sm text-ink-700" role="alert">
+          The plotting code could not be loaded (the connection dropped?); reload the page to draw this plot.
+        </div>
       ) : !Plotly ? (
         <div className="h-full w-full animate-pulse rounded-cell bg-paper-sunk" aria-label="Loading plot" />
       ) : (
