@@ -2,12 +2,12 @@
 // console prints a one-time set-up address; the first-run page refuses without that token and creates the lab and its
 // administrator with it, who then sees an empty lab.
 import { spawn, type ChildProcess } from "node:child_process";
-import { randomBytes } from "node:crypto";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { freePort } from "../helpers/free-port";
+import { productionEnv } from "../helpers/production-env";
 import { inject } from "./env";
 import type { Page } from "playwright-core";
 import { openBrowser } from "./chromium";
@@ -19,30 +19,12 @@ let base = "";
 let page: Page;
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-first-run-"));
 
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer();
-    s.listen(0, "127.0.0.1", () => {
-      const port = (s.address() as net.AddressInfo).port;
-      s.close(() => resolve(port));
-    });
-  });
-}
 
 beforeAll(async () => {
   const port = await freePort();
   base = `http://127.0.0.1:${port}`;
   server = spawn(process.execPath, ["dist/serve.mjs"], {
-    env: {
-      PATH: process.env.PATH!,
-      HOME: dir,
-      PORT: String(port),
-      NEXTAUTH_URL: base,
-      NEXTAUTH_SECRET: randomBytes(32).toString("base64url"),
-      AUDIT_KEY: randomBytes(32).toString("base64url"),
-      MAIL_TRANSPORT: "log",
-      DATABASE_FILE: path.join(dir, "lab.sqlite"),
-    } as unknown as NodeJS.ProcessEnv,
+    env: productionEnv(dir, port, base),
   });
   server.stdout!.on("data", (b: Buffer) => (out += b.toString()));
   server.stderr!.on("data", (b: Buffer) => (out += b.toString()));

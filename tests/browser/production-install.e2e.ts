@@ -4,12 +4,12 @@
 // rendered; the command line runs its compiled bundle there too (a fit of a fixture). The copy's node_modules are hard links of the checkout's, which
 // npm prune unlinks without touching the originals; the lockfiles are real copies.
 import { execFileSync, spawn, type ChildProcess } from "node:child_process";
-import { randomBytes } from "node:crypto";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { freePort } from "../helpers/free-port";
+import { productionEnv } from "../helpers/production-env";
 
 const root = path.resolve(__dirname, "..", "..");
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "halflight-production-install-"));
@@ -18,15 +18,6 @@ let server: ChildProcess | undefined;
 let out = "";
 let base = "";
 
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer();
-    s.listen(0, "127.0.0.1", () => {
-      const port = (s.address() as net.AddressInfo).port;
-      s.close(() => resolve(port));
-    });
-  });
-}
 
 /** A copy by hard links (instant, no space), or a plain copy where the temporary folder is on another file system. */
 function copyTree(from: string, to: string): void {
@@ -55,17 +46,7 @@ beforeAll(async () => {
   const start = (JSON.parse(fs.readFileSync(path.join(app, "package.json"), "utf8")) as { scripts: { start: string } }).scripts.start;
   server = spawn("sh", ["-c", start], {
     cwd: app,
-    env: {
-      PATH: process.env.PATH!,
-      HOME: dir,
-      PORT: String(port),
-      NODE_ENV: "production",
-      NEXTAUTH_URL: base,
-      NEXTAUTH_SECRET: randomBytes(32).toString("base64url"),
-      AUDIT_KEY: randomBytes(32).toString("base64url"),
-      MAIL_TRANSPORT: "log",
-      DATABASE_FILE: path.join(dir, "lab.sqlite"),
-    } as unknown as NodeJS.ProcessEnv,
+    env: productionEnv(dir, port, base, { NODE_ENV: "production" }),
     detached: true,
   });
   server.stdout!.on("data", (b: Buffer) => (out += b.toString()));
