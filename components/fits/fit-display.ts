@@ -1,7 +1,7 @@
 // What the fitting page draws from a fit, decimated where the fit is computed (the Web Worker), so a million-point
 // series never crosses to the page's main thread as curves: the points by kind (included, excluded, outside the
 // window), each model's curve and residuals, and the linearized view, each at most a few points per plot column.
-import type { SeriesFitOutcome } from "@/lib/kinetics/workspace";
+import { includedFlags, type SeriesFitOptions, type SeriesFitOutcome } from "@/lib/kinetics/workspace";
 import { decimate, decimateIndices } from "@/lib/plot/decimate";
 
 /**
@@ -30,26 +30,24 @@ function thinIndices(t: ArrayLike<number>, y: ArrayLike<number>, idx: number[]):
   return decimateIndices(ts, ys, PLOT_COLUMNS).map((j) => idx[j]!);
 }
 
-/**
- * What the page draws while its first fit is being computed: the points by kind, as the fit will take them (inside
- * the window, not excluded: the rule of `fitSeriesWithOptions`), and no curves yet. The page is usable meanwhile.
- */
-export function pointsDisplay(t: ArrayLike<number>, y: ArrayLike<number>, excluded: ReadonlySet<number>, window: { from?: number | null; to?: number | null } = {}): FitDisplay {
-  const from = window.from ?? -Infinity,
-    to = window.to ?? Infinity;
+/** The points by kind (fitted, excluded, outside the window): every excluded one, the others decimated. */
+function shownPoints(t: ArrayLike<number>, y: ArrayLike<number>, included: ArrayLike<boolean>, excluded: ReadonlySet<number>): FitDisplay["shown"] {
   const inc: number[] = [],
     ex: number[] = [],
     out: number[] = [];
-  for (let i = 0; i < t.length; i++) (excluded.has(i) ? ex : t[i]! >= from && t[i]! <= to ? inc : out).push(i);
-  return { shown: { inc: thinIndices(t, y, inc), ex, out: thinIndices(t, y, out), total: t.length }, curves: {}, linear: null };
+  for (let i = 0; i < t.length; i++) (included[i] ? inc : excluded.has(i) ? ex : out).push(i);
+  return { inc: thinIndices(t, y, inc), ex, out: thinIndices(t, y, out), total: t.length };
+}
+
+/**
+ * What the page draws while its first fit is being computed: the points by kind, as the fit will take them (the
+ * engine's own rule, `includedFlags`), and no curves yet. The page is usable meanwhile.
+ */
+export function pointsDisplay(t: ArrayLike<number>, y: ArrayLike<number>, excluded: ReadonlySet<number>, window: SeriesFitOptions["window"] = {}): FitDisplay {
+  return { shown: shownPoints(t, y, includedFlags(t, excluded, window), excluded), curves: {}, linear: null };
 }
 
 export function fitDisplay(outcome: SeriesFitOutcome, t: ArrayLike<number>, y: ArrayLike<number>, excluded: ReadonlySet<number>): { outcome: SlimOutcome; display: FitDisplay } {
-  const inc: number[] = [],
-    ex: number[] = [],
-    out: number[] = [];
-  for (let i = 0; i < t.length; i++) (outcome.included[i] ? inc : excluded.has(i) ? ex : out).push(i);
-  const thin = (idx: number[]) => thinIndices(t, y, idx);
   const curves: FitDisplay["curves"] = {};
   for (const [model, c] of Object.entries(outcome.curves)) {
     curves[model] = { fitted: decimate(c.t, c.fitted, PLOT_COLUMNS), residuals: decimate(c.t, c.residuals, PLOT_COLUMNS / 2) };
@@ -58,6 +56,6 @@ export function fitDisplay(outcome: SeriesFitOutcome, t: ArrayLike<number>, y: A
   const { curves: _c, linearized_view: _l, ...rest } = outcome;
   return {
     outcome: { ...rest, linearized_view: lv ? { line: lv.line } : null },
-    display: { shown: { inc: thin(inc), ex, out: thin(out), total: t.length }, curves, linear: lv ? decimate(lv.t, lv.ln, PLOT_COLUMNS / 2) : null },
+    display: { shown: shownPoints(t, y, outcome.included, excluded), curves, linear: lv ? decimate(lv.t, lv.ln, PLOT_COLUMNS / 2) : null },
   };
 }

@@ -61,15 +61,20 @@ export interface SeriesFitOutcome {
   linearized_view: { t: Float64Array; ln: Float64Array; line: { t: [number, number]; ln: [number, number] } } | null;
 }
 
+/** Which points a fit takes: those inside the window (ends included) and not excluded. The one rule for fits and plots. */
+export function includedFlags(tAll: ArrayLike<number>, excluded: ReadonlySet<number>, window: SeriesFitOptions["window"]): boolean[] {
+  const from = window?.from ?? -Infinity;
+  const to = window?.to ?? Infinity;
+  return Array.from({ length: tAll.length }, (_, i) => !excluded.has(i) && tAll[i]! >= from && tAll[i]! <= to);
+}
+
 /** The points a fit with these options uses: inside the window, not excluded, finite, converted as the options say. */
 export function includedPoints(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: Pick<SeriesFitOptions, "window" | "exclusions" | "conversion">): { t: Float64Array; y: Float64Array } {
-  const excluded = new Set((o.exclusions ?? []).map((e) => e.index));
-  const from = o.window?.from ?? -Infinity;
-  const to = o.window?.to ?? Infinity;
+  const included = includedFlags(tAll, new Set((o.exclusions ?? []).map((e) => e.index)), o.window);
   const t: number[] = [],
     y: number[] = [];
   for (let i = 0; i < tAll.length; i++) {
-    if (excluded.has(i) || tAll[i]! < from || tAll[i]! > to) continue;
+    if (!included[i]) continue;
     const v = o.conversion ? convertReading(yAll[i]!, o.conversion) : yAll[i]!;
     if (!Number.isFinite(v)) continue;
     t.push(tAll[i]!);
@@ -81,9 +86,7 @@ export function includedPoints(tAll: ArrayLike<number>, yAll: ArrayLike<number>,
 export function fitSeriesWithOptions(tAll: ArrayLike<number>, yAll: ArrayLike<number>, o: SeriesFitOptions): SeriesFitOutcome {
   const n = tAll.length;
   const excluded = new Set((o.exclusions ?? []).map((e) => e.index));
-  const from = o.window?.from ?? -Infinity;
-  const to = o.window?.to ?? Infinity;
-  const included = Array.from({ length: n }, (_, i) => !excluded.has(i) && tAll[i]! >= from && tAll[i]! <= to);
+  const included = includedFlags(tAll, excluded, o.window);
   const t: number[] = [],
     y: number[] = [];
   let lo = Infinity,
