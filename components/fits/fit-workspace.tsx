@@ -171,7 +171,7 @@ function Workspace({ run, series, initialModels, from, canSave, engineVersion, p
           dispatch={dispatch}
           onPointClick={onPointClick}
         />
-        {outcome && result ? (
+        {outcome ? (
           <ComparisonTable outcome={outcome} perMinute={s.perMinute} yUnit={yUnit} stale={stale} />
         ) : (
           <section className="rounded-cell bg-paper-raised p-4 text-sm text-ink-700 shadow-lift" aria-label="Fitting the series" aria-busy="true" data-testid="first-fit">

@@ -39,17 +39,19 @@ function useNearViewport<T extends Element>(): [React.RefObject<T | null>, boole
 }
 
 /**
- * The figure to draw, taken up in a task of its own (a zero-delay timeout rendered at once with flushSync): when a fit
- * changes every plot on a page, each plotly redraw is then a separate main-thread task instead of one long one, and
- * input can be handled between them. The flag is true while a newer figure waits (the figure is aria-busy meanwhile).
+ * Runs a state update in a main-thread task of its own (a zero-delay timeout, rendered at once with flushSync), so
+ * that when several plots change together each plotly draw is a separate task instead of one long one, and input is
+ * handled between them. Answers the cancel.
  */
+function inOwnTask(update: () => void): () => void {
+  const id = setTimeout(() => flushSync(update), 0);
+  return () => clearTimeout(id);
+}
+
+/** The figure to draw, taken up in its own task; the flag is true while a newer figure waits (aria-busy meanwhile). */
 function useFigureInOwnTask<T>(figure: T): [T, boolean] {
   const [drawn, setDrawn] = useState(figure);
-  useEffect(() => {
-    if (drawn === figure) return;
-    const id = setTimeout(() => flushSync(() => setDrawn(figure)), 0);
-    return () => clearTimeout(id);
-  }, [figure, drawn]);
+  useEffect(() => (drawn === figure ? undefined : inOwnTask(() => setDrawn(figure))), [figure, drawn]);
   return [drawn, drawn !== figure];
 }
 
@@ -78,10 +80,10 @@ export function Plot({
   useEffect(() => {
     if (!near || Plotly) return;
     let live = true;
-    let timer: ReturnType<typeof setTimeout> | undefined;
+    let cancel = () => {};
     loadPlotComponent().then(
       (C) => {
-        if (live) timer = setTimeout(() => live && flushSync(() => setPlotly(() => C)), 0);
+        if (live) cancel = inOwnTask(() => setPlotly(() => C));
       },
       () => {
         loading = null; // a later plot (or a reload) tries again
@@ -90,7 +92,7 @@ export function Plot({
     );
     return () => {
       live = false;
-      clearTimeout(timer);
+      cancel();
     };
   }, [near, Plotly]);
   // Same identity while the caller's layout is the same (react-plotly.js redraws on any new layout or data object).
